@@ -1,0 +1,46 @@
+// dispatch.cpp: `attiscope SUBCOMMAND ...`: finds the subcommand and runs it.
+#include <ostream>
+
+#include "cli/cli.hpp"
+
+namespace attiscope::cli {
+
+namespace {
+
+struct Subcommand {
+  const char* name;
+  const char* summary;
+  int (*run)(const std::vector<std::string>&, Streams);
+};
+
+const Subcommand kSubcommands[] = {
+    {"convert", "read one pose, print every representation", run_convert},
+};
+
+void print_usage(std::ostream& os) {
+  os << "usage: attiscope [SUBCOMMAND] [options]\n\n"
+        "With no subcommand, attiscope opens the window on the demo scene.\n\nSubcommands:\n";
+  for (const Subcommand& s : kSubcommands) {
+    std::string n = s.name;
+    n.resize(10, ' ');
+    os << "  " << n << s.summary << "\n";
+  }
+  os << "\nEvery subcommand takes --help. Exit codes: 0 success, 1 a check failed, 2 bad input.\n";
+}
+
+}  // namespace
+
+int run(const std::vector<std::string>& args, Streams io) {
+  if (args.empty() || args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
+    print_usage(io.out);
+    return kExitOk;
+  }
+  for (const Subcommand& s : kSubcommands) {
+    if (args[0] == s.name) return s.run(std::vector<std::string>(args.begin() + 1, args.end()), io);
+  }
+  io.err << "attiscope: unknown subcommand '" << args[0] << "'\n";
+  print_usage(io.err);
+  return kExitBadInput;
+}
+
+}  // namespace attiscope::cli
