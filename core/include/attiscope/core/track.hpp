@@ -26,13 +26,13 @@ struct TrackColumn {
 };
 
 struct Track {
-  std::vector<double> time_s;  ///< seconds; sample index when the log has no time column
+  std::vector<double> time_s;          ///< seconds; sample index when the log has no time column
   std::vector<double> qw, qx, qy, qz;  ///< as read (normalised only when asked), sign kept
   std::vector<BadRow> bad_rows;
   std::vector<TrackColumn> columns;
-  std::string reading;      ///< how the rotation columns were read, e.g. "quat-wxyz"
-  bool has_time = false;    ///< false: time_s holds sample indices
-  std::string time_unit;    ///< unit the time column was written in ("s", "ms", "us", "ns")
+  std::string reading;    ///< how the rotation columns were read, e.g. "quat-wxyz"
+  bool has_time = false;  ///< false: time_s holds sample indices
+  std::string time_unit;  ///< unit the time column was written in ("s", "ms", "us", "ns")
 
   std::size_t size() const { return time_s.size(); }
 };
