@@ -18,7 +18,6 @@
 #define ATTISCOPE_BATCH_X86 1
 extern "C" {
 double atan2(double, double) noexcept __attribute__((simd("notinbranch")));
-double hypot(double, double) noexcept __attribute__((simd("notinbranch")));
 double sin(double) noexcept __attribute__((simd("notinbranch")));
 double cos(double) noexcept __attribute__((simd("notinbranch")));
 }
@@ -67,7 +66,15 @@ ATTISCOPE_INLINE void quat_to_euler_body(const QuatToEulerArgs& p) {
     const double b = Proper ? qi : qi + qk;
     const double c = Proper ? qj : qj + qw;
     const double d = Proper ? qk : qk - qi;
-    double t2 = 2.0 * std::atan2(std::hypot(c, d), std::hypot(a, b));  // [0, pi]
+    // t2 = 2 atan2(hypot(c, d), hypot(a, b)) as in to_euler, with one square root:
+    // sqrt(n2 / n1) = sqrt(n1 n2) / n1 = n2 / sqrt(n1 n2), the larger of n1, n2 as divisor.
+    // Same to a few ulp; a product that underflows needs a ratio below 1e-150, which only
+    // happens within 1e-75 rad of lock, where batch.cpp redoes the sample with to_euler.
+    const double n1 = a * a + b * b;
+    const double n2 = c * c + d * d;
+    const double root = std::sqrt(n1 * n2);
+    const bool n1_larger = n1 >= n2;
+    double t2 = 2.0 * std::atan2(n1_larger ? root : n2, n1_larger ? n1 : root);  // [0, pi]
     const double half_sum = std::atan2(b, a);
     const double half_diff = std::atan2(d, c);
     const double t1 = half_sum - half_diff;
@@ -186,16 +193,18 @@ ATTISCOPE_INLINE void matrix_to_quat_body(const MatrixQuatArgs& p) {
     const double nx = p0 ? d0 : (p2 ? u01 : u02);
     const double ny = p0 ? d1 : (p1 ? u01 : u12);
     const double nz = p0 ? d2 : (p1 ? u02 : u12);
+    // One reciprocal instead of seven divisions (the single-pose code divides): an ulp.
     const double quarter = 0.25 * sq;
-    double qw = p0 ? quarter : nw / sq;
-    double qx = p1 ? quarter : nx / sq;
-    double qy = p2 ? quarter : ny / sq;
-    double qz = p3 ? quarter : nz / sq;
-    const double norm = std::sqrt(qx * qx + qy * qy + qz * qz + qw * qw);
-    qw /= norm;
-    qx /= norm;
-    qy /= norm;
-    qz /= norm;
+    const double inv_sq = 1.0 / sq;
+    double qw = p0 ? quarter : nw * inv_sq;
+    double qx = p1 ? quarter : nx * inv_sq;
+    double qy = p2 ? quarter : ny * inv_sq;
+    double qz = p3 ? quarter : nz * inv_sq;
+    const double inv_norm = 1.0 / std::sqrt(qx * qx + qy * qy + qz * qz + qw * qw);
+    qw *= inv_norm;
+    qx *= inv_norm;
+    qy *= inv_norm;
+    qz *= inv_norm;
     // canonical_sign (rotation.cpp): w > 0, else the first non-zero of x, y, z positive.
     const double sx =
         qx > 0.0 ? 1.0 : (qx < 0.0 ? -1.0 : (qy > 0.0 ? 1.0 : (qy < 0.0 ? -1.0 : (qz < 0.0 ? -1.0 : 1.0))));
