@@ -2,6 +2,7 @@
 // the samples at lock, which are handed to the single-pose to_euler.
 #include "attiscope/core/batch.hpp"
 
+#include <algorithm>
 #include <cfloat>
 #include <cmath>
 #include <cstdint>
