@@ -17,6 +17,11 @@ namespace attiscope::test {
 inline constexpr double kTight = 1e-12;
 /// Round trips through every representation over random rotations.
 inline constexpr double kRoundTrip = 1e-12;
+/// The SIMD batch kernels (batch.hpp) against the single-pose functions: angles away from
+/// lock, lock margins and rotations (glibc's vector math is within a few ulp of libm).
+inline constexpr double kBatchAngle = 1e-14;
+/// The batch kernels' quaternion components and matrix entries against the single-pose ones.
+inline constexpr double kBatchComponent = 4e-15;
 /// The fixed seed of every property test; failure messages print it.
 inline constexpr std::uint32_t kSeed = 20261201;
 

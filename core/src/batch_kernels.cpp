@@ -1,0 +1,302 @@
+// batch_kernels.cpp: the loops of the batch conversions, built once per instruction set.
+//
+// This file alone is compiled with -O3 -fno-math-errno -fno-trapping-math -fopenmp-simd
+// -ffp-contract=off -fno-builtin-sin -fno-builtin-cos (core/CMakeLists.txt). None of them
+// changes a result: they let GCC call glibc's vector math library (libmvec) from a
+// vectorised loop and turn the selects below into blends; -fno-builtin-sin/cos stop GCC
+// from merging sin and cos of one angle into a scalar sincos call, which no loop can
+// vectorise; -ffp-contract=off forbids fused multiply-adds so that the arithmetic is the
+// same as in the single-pose functions. Every branch is written as a select between two
+// computed values so that the loops if-convert. The libm functions are declared with
+// GCC's simd attribute, as glibc's own header does only under -ffast-math.
+#include "batch_kernels.hpp"
+
+#include <cfloat>
+#include <cmath>
+
+#if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__)
+#define ATTISCOPE_BATCH_X86 1
+extern "C" {
+double atan2(double, double) noexcept __attribute__((simd("notinbranch")));
+double sin(double) noexcept __attribute__((simd("notinbranch")));
+double cos(double) noexcept __attribute__((simd("notinbranch")));
+}
+#define ATTISCOPE_INLINE inline __attribute__((always_inline))
+#else
+#define ATTISCOPE_BATCH_X86 0
+#define ATTISCOPE_INLINE inline
+#endif
+
+namespace attiscope::batch_detail {
+namespace {
+
+constexpr double kPi = M_PI;
+constexpr double kTwoPi = 2.0 * M_PI;
+constexpr double kHalfPi = 0.5 * M_PI;
+
+/// wrap_pi of euler.cpp for |t| <= 3 pi, where remainder(t, 2 pi) subtracts at most one
+/// 2 pi: (-pi, pi], with -pi mapped to pi. Both subtractions are exact (Sterbenz).
+ATTISCOPE_INLINE double wrap_one_turn(double t) {
+  t = t - (t > kPi ? kTwoPi : 0.0);
+  return t + (t <= -kPi ? kTwoPi : 0.0);
+}
+
+// Quaternion -> Euler: Bernardes & Viollet 2022, as in to_euler (euler.cpp), line by line.
+template <bool Proper>
+ATTISCOPE_INLINE void quat_to_euler_body(const QuatToEulerArgs& p) {
+  const std::size_t n = p.n;
+  const double* w = p.w;
+  const double* vi = p.qi;
+  const double* vj = p.qj;
+  const double* vk = p.qk;
+  const double sign = p.sign;
+  double* out1 = p.out1;
+  double* out2 = p.out2;
+  double* out3 = p.out3;
+  double* margin = p.margin;
+#pragma omp simd
+  for (std::size_t s = 0; s < n; ++s) {
+    const double qw = w[s];
+    const double qi = vi[s];
+    const double qj = vj[s];
+    const double qk = vk[s] * sign;
+    // Proper: (a, b, c, d) = (w, qi, qj, qk). Tait-Bryan: the quaternion turned by 45
+    // degrees about the j axis, which makes the sequence proper.
+    const double a = Proper ? qw : qw - qj;
+    const double b = Proper ? qi : qi + qk;
+    const double c = Proper ? qj : qj + qw;
+    const double d = Proper ? qk : qk - qi;
+    // t2 = 2 atan2(hypot(c, d), hypot(a, b)) as in to_euler, with one square root:
+    // sqrt(n2 / n1) = sqrt(n1 n2) / n1 = n2 / sqrt(n1 n2), the larger of n1, n2 as divisor.
+    // Same to a few ulp; a product that underflows needs a ratio below 1e-150, which only
+    // happens within 1e-75 rad of lock, where batch.cpp redoes the sample with to_euler.
+    const double n1 = a * a + b * b;
+    const double n2 = c * c + d * d;
+    const double root = std::sqrt(n1 * n2);
+    const bool n1_larger = n1 >= n2;
+    double t2 = 2.0 * std::atan2(n1_larger ? root : n2, n1_larger ? n1 : root);  // [0, pi]
+    const double half_sum = std::atan2(b, a);
+    const double half_diff = std::atan2(d, c);
+    const double t1 = half_sum - half_diff;
+    double t3 = half_sum + half_diff;
+    double m;
+    if constexpr (Proper) {
+      m = (kPi - t2 < t2) ? kPi - t2 : t2;  // std::min(t2, pi - t2), as lock_margin
+    } else {
+      t3 *= sign;
+      t2 -= kHalfPi;
+      m = kHalfPi - std::fabs(t2);
+    }
+    // Zero, NaN, Inf or a norm outside the normal range: flagged for batch.cpp.
+    const double norm2 = qw * qw + qi * qi + qj * qj + qk * qk;
+    const bool usable = norm2 >= DBL_MIN && norm2 <= DBL_MAX;
+    out1[s] = wrap_one_turn(t1);
+    out2[s] = t2;
+    out3[s] = wrap_one_turn(t3);
+    margin[s] = usable ? m : -1.0;
+  }
+}
+
+// Euler -> quaternion: the product of three half-angle quaternions (as from_euler).
+// In the right-handed frame (e_i, e_j, e_k') with e_k' = sign e_k:
+//   Tait-Bryan  q = (c1 + s1 i)(c2 + s2 j)(c3 + s3' k'), s3' = sign s3;
+//   proper      q = (c1 + s1 i)(c2 + s2 j)(c3 + s3 i).
+// With A = c1 c2, B = s1 c2, C = c1 s2, D = s1 s2 (the first two factors), expanding the
+// third by i j = k', j k' = i, k' i = j gives the components below.
+template <bool Proper>
+ATTISCOPE_INLINE void euler_to_quat_body(const EulerToQuatArgs& p) {
+  const std::size_t n = p.n;
+  const double* va = p.a;
+  const double* vb = p.b;
+  const double* vc = p.c;
+  const double sign = p.sign;
+  double* ow = p.outw;
+  double* oi = p.outi;
+  double* oj = p.outj;
+  double* ok = p.outk;
+#pragma omp simd
+  for (std::size_t s = 0; s < n; ++s) {
+    const double h1 = 0.5 * va[s];
+    const double h2 = 0.5 * vb[s];
+    const double h3 = 0.5 * vc[s];
+    const double c1 = std::cos(h1);
+    const double s1 = std::sin(h1);
+    const double c2 = std::cos(h2);
+    const double s2 = std::sin(h2);
+    const double c3 = std::cos(h3);
+    const double s3 = Proper ? std::sin(h3) : sign * std::sin(h3);
+    const double ca = c1 * c2;
+    const double cb = s1 * c2;
+    const double cc = c1 * s2;
+    const double cd = s1 * s2;
+    double qw, qi, qj, qk;
+    if constexpr (Proper) {
+      qw = ca * c3 - cb * s3;
+      qi = ca * s3 + cb * c3;
+      qj = cc * c3 + cd * s3;
+      qk = cd * c3 - cc * s3;
+    } else {
+      qw = ca * c3 - cd * s3;
+      qi = cb * c3 + cc * s3;
+      qj = cc * c3 - cb * s3;
+      qk = ca * s3 + cd * c3;
+    }
+    ow[s] = qw;
+    oi[s] = qi;
+    oj[s] = qj;
+    ok[s] = sign * qk;
+  }
+}
+
+// Matrix -> quaternion: Shepperd 1978, as quaternion_from_rotation_matrix (matrix.cpp):
+// the pivot is the first largest of tr R, R00, R11, R22, so the divisor is >= 1/2.
+ATTISCOPE_INLINE void matrix_to_quat_body(const MatrixQuatArgs& p) {
+  const std::size_t n = p.n;
+  const double* m00 = p.r[0];
+  const double* m01 = p.r[1];
+  const double* m02 = p.r[2];
+  const double* m10 = p.r[3];
+  const double* m11 = p.r[4];
+  const double* m12 = p.r[5];
+  const double* m20 = p.r[6];
+  const double* m21 = p.r[7];
+  const double* m22 = p.r[8];
+  double* ow = p.w;
+  double* ox = p.x;
+  double* oy = p.y;
+  double* oz = p.z;
+#pragma omp simd
+  for (std::size_t s = 0; s < n; ++s) {
+    const double r00 = m00[s], r01 = m01[s], r02 = m02[s];
+    const double r10 = m10[s], r11 = m11[s], r12 = m12[s];
+    const double r20 = m20[s], r21 = m21[s], r22 = m22[s];
+    const double tr = r00 + r11 + r22;
+    // The pivot as a double (0 = w, 1 = x, 2 = y, 3 = z), so that every mask below has
+    // the width of the data and the loop vectorises.
+    const double best1 = r00 > tr ? r00 : tr;
+    const double best2 = r11 > best1 ? r11 : best1;
+    const double pivot = r22 > best2 ? 3.0 : (r11 > best1 ? 2.0 : (r00 > tr ? 1.0 : 0.0));
+    const bool p0 = pivot == 0.0;
+    const bool p1 = pivot == 1.0;
+    const bool p2 = pivot == 2.0;
+    const bool p3 = pivot == 3.0;
+    const double pivot_diag = p3 ? r22 : (p2 ? r11 : r00);
+    const double four_q2 = p0 ? 1.0 + tr : 1.0 + 2.0 * pivot_diag - tr;
+    const double sq = 2.0 * std::sqrt(four_q2);  // 4 q_p
+    const double d0 = r21 - r12;
+    const double d1 = r02 - r20;
+    const double d2 = r10 - r01;
+    const double u01 = r01 + r10;
+    const double u02 = r02 + r20;
+    const double u12 = r12 + r21;
+    const double nw = p1 ? d0 : (p2 ? d1 : d2);
+    const double nx = p0 ? d0 : (p2 ? u01 : u02);
+    const double ny = p0 ? d1 : (p1 ? u01 : u12);
+    const double nz = p0 ? d2 : (p1 ? u02 : u12);
+    // One reciprocal instead of seven divisions (the single-pose code divides): an ulp.
+    const double quarter = 0.25 * sq;
+    const double inv_sq = 1.0 / sq;
+    double qw = p0 ? quarter : nw * inv_sq;
+    double qx = p1 ? quarter : nx * inv_sq;
+    double qy = p2 ? quarter : ny * inv_sq;
+    double qz = p3 ? quarter : nz * inv_sq;
+    const double inv_norm = 1.0 / std::sqrt(qx * qx + qy * qy + qz * qz + qw * qw);
+    qw *= inv_norm;
+    qx *= inv_norm;
+    qy *= inv_norm;
+    qz *= inv_norm;
+    // canonical_sign (rotation.cpp): w > 0, else the first non-zero of x, y, z positive.
+    const double sx =
+        qx > 0.0 ? 1.0 : (qx < 0.0 ? -1.0 : (qy > 0.0 ? 1.0 : (qy < 0.0 ? -1.0 : (qz < 0.0 ? -1.0 : 1.0))));
+    const double sg = qw > 0.0 ? 1.0 : (qw < 0.0 ? -1.0 : sx);
+    ow[s] = sg * qw;
+    ox[s] = sg * qx;
+    oy[s] = sg * qy;
+    oz[s] = sg * qz;
+  }
+}
+
+// Quaternion -> matrix: the expansion Eigen's Quaternion::toRotationMatrix uses.
+ATTISCOPE_INLINE void quat_to_matrix_body(const QuatMatrixArgs& p) {
+  const std::size_t n = p.n;
+  const double* vw = p.w;
+  const double* vx = p.x;
+  const double* vy = p.y;
+  const double* vz = p.z;
+  double* m00 = p.r[0];
+  double* m01 = p.r[1];
+  double* m02 = p.r[2];
+  double* m10 = p.r[3];
+  double* m11 = p.r[4];
+  double* m12 = p.r[5];
+  double* m20 = p.r[6];
+  double* m21 = p.r[7];
+  double* m22 = p.r[8];
+#pragma omp simd
+  for (std::size_t s = 0; s < n; ++s) {
+    const double w = vw[s], x = vx[s], y = vy[s], z = vz[s];
+    const double tx = 2.0 * x, ty = 2.0 * y, tz = 2.0 * z;
+    const double twx = tx * w, twy = ty * w, twz = tz * w;
+    const double txx = tx * x, txy = ty * x, txz = tz * x;
+    const double tyy = ty * y, tyz = tz * y, tzz = tz * z;
+    m00[s] = 1.0 - (tyy + tzz);
+    m01[s] = txy - twz;
+    m02[s] = txz + twy;
+    m10[s] = txy + twz;
+    m11[s] = 1.0 - (txx + tzz);
+    m12[s] = tyz - twx;
+    m20[s] = txz - twy;
+    m21[s] = tyz + twx;
+    m22[s] = 1.0 - (txx + tyy);
+  }
+}
+
+}  // namespace
+
+// One set of entry points per instruction set. The bodies are inlined into each, so GCC
+// vectorises them for that set and calls the matching libmvec variant.
+#define ATTISCOPE_DEFINE_KERNELS(NAME, TARGET)                                  \
+  namespace NAME {                                                              \
+  TARGET void q2e_tb(const QuatToEulerArgs& p) {                                \
+    quat_to_euler_body<false>(p);                                               \
+  }                                                                             \
+  TARGET void q2e_proper(const QuatToEulerArgs& p) {                            \
+    quat_to_euler_body<true>(p);                                                \
+  }                                                                             \
+  TARGET void e2q_tb(const EulerToQuatArgs& p) {                                \
+    euler_to_quat_body<false>(p);                                               \
+  }                                                                             \
+  TARGET void e2q_proper(const EulerToQuatArgs& p) {                            \
+    euler_to_quat_body<true>(p);                                                \
+  }                                                                             \
+  TARGET void m2q(const MatrixQuatArgs& p) {                                    \
+    matrix_to_quat_body(p);                                                     \
+  }                                                                             \
+  TARGET void q2m(const QuatMatrixArgs& p) {                                    \
+    quat_to_matrix_body(p);                                                     \
+  }                                                                             \
+  KernelTable table() {                                                         \
+    return KernelTable{&q2e_tb, &q2e_proper, &e2q_tb, &e2q_proper, &m2q, &q2m}; \
+  }                                                                             \
+  }
+
+ATTISCOPE_DEFINE_KERNELS(baseline, )
+#if ATTISCOPE_BATCH_X86
+ATTISCOPE_DEFINE_KERNELS(avx2, __attribute__((target("avx2"))))
+ATTISCOPE_DEFINE_KERNELS(avx512, __attribute__((target("avx512f"))))
+#endif
+
+bool isa_built(Isa isa) {
+  return isa == Isa::Baseline || ATTISCOPE_BATCH_X86;
+}
+
+KernelTable kernels(Isa isa) {
+#if ATTISCOPE_BATCH_X86
+  if (isa == Isa::Avx512) return avx512::table();
+  if (isa == Isa::Avx2) return avx2::table();
+#endif
+  (void)isa;
+  return baseline::table();
+}
+
+}  // namespace attiscope::batch_detail
