@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <complex>
+#include <cstdio>
 
 namespace attiscope {
 
@@ -66,10 +67,13 @@ Expected<Rotation> from_quaternion_numbers(const std::array<double, 4>& numbers,
   Eigen::Quaterniond q = c.layout == QuatLayout::ScalarFirst
                              ? Eigen::Quaterniond(numbers[0], numbers[1], numbers[2], numbers[3])
                              : Eigen::Quaterniond(numbers[3], numbers[0], numbers[1], numbers[2]);
-  const double norm = q.norm();
+  // stableNorm: 1e200 squared would overflow to infinity and report a wrong norm.
+  const double norm = q.coeffs().stableNorm();
   if (check) check->norm = norm;
   if (!(norm >= kMinQuaternionNorm)) {
-    return Error{"this is a zero quaternion (norm " + std::to_string(norm) + "): it describes no rotation"};
+    char buf[48];
+    std::snprintf(buf, sizeof buf, "%.3g", norm);
+    return Error{"this is a zero quaternion (norm " + std::string(buf) + "): it describes no rotation"};
   }
   if (numbers_are_inverse(c)) q = q.conjugate();
   return Rotation(q);

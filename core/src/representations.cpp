@@ -24,8 +24,8 @@ AxisAngle to_axis_angle(const Rotation& r) {
 
 Expected<Rotation> from_axis_angle(const Eigen::Vector3d& axis, double angle_rad) {
   if (!axis.allFinite() || !std::isfinite(angle_rad)) return not_finite("the axis-angle");
-  const double n = axis.norm();
-  if (n < 1e-12) return Error{"the rotation axis is a zero vector: it has no direction"};
+  const double n = axis.stableNorm();  // no overflow for an axis written as (1e200, 0, 0)
+  if (n < kMinAxisNorm) return Error{"the rotation axis is a zero vector: it has no direction"};
   Eigen::Quaterniond q;
   q.w() = std::cos(0.5 * angle_rad);
   q.vec() = axis / n * std::sin(0.5 * angle_rad);
@@ -39,7 +39,8 @@ Eigen::Vector3d to_rotation_vector(const Rotation& r) {
 
 Expected<Rotation> from_rotation_vector(const Eigen::Vector3d& v) {
   if (!v.allFinite()) return not_finite("the rotation vector");
-  const double t = v.norm();
+  const double t = v.stableNorm();  // no overflow for components such as 1e300
+  if (!std::isfinite(t)) return Error{"the rotation vector is too long to be an angle"};
   // sin(t/2)/t by its Taylor series near 0, where the quotient loses digits.
   const double k = t < kSmallAngleRad ? 0.5 - t * t / 48.0 : std::sin(0.5 * t) / t;
   Eigen::Quaterniond q;

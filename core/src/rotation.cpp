@@ -19,9 +19,13 @@ Eigen::Quaterniond canonical_sign(const Eigen::Quaterniond& q) {
 }
 
 Rotation::Rotation(const Eigen::Quaterniond& hamilton_wxyz) : q_(hamilton_wxyz) {
-  const double n = q_.norm();
-  assert(std::isfinite(n) && n > 0.0 && "Rotation built from a zero or non-finite quaternion");
-  q_.coeffs() /= n;
+  // Scale by the largest magnitude first so the norm neither overflows (1e200 squared is
+  // infinite) nor underflows (1e-200 squared is 0): any finite, non-zero four numbers name
+  // a direction in 4D.
+  const double scale = q_.coeffs().cwiseAbs().maxCoeff();
+  assert(std::isfinite(scale) && scale > 0.0 && "Rotation built from a zero or non-finite quaternion");
+  q_.coeffs() /= scale;
+  q_.coeffs() /= q_.norm();
 }
 
 Rotation Rotation::operator*(const Rotation& rhs) const {

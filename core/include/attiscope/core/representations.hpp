@@ -43,6 +43,8 @@ Eigen::Vector3d to_mrp(const Rotation& r);
 std::optional<Eigen::Vector3d> mrp_shadow(const Eigen::Vector3d& p);
 Expected<Rotation> from_mrp(const Eigen::Vector3d& p);
 
+/// An axis shorter than this has no direction (from_axis_angle).
+inline constexpr double kMinAxisNorm = 1e-12;
 /// Below this angle the small-angle series is used.
 inline constexpr double kSmallAngleRad = 1e-4;
 /// The Gibbs vector is reported infinite when the canonical w is below this.
