@@ -56,11 +56,36 @@ int run_convert(const std::vector<std::string>& args, Streams io) {
       io.err << "attiscope convert: " << numbers.error().describe() << "\n";
       return kExitBadInput;
     }
-    kind = reading_by_count(numbers.value().size());
+    const std::vector<NumberToken>& found = numbers.value();
+    kind = reading_by_count(found.size());
     if (!kind) {
-      io.err << "attiscope convert: got " << numbers.value().size()
-             << " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say "
-                "which with --as\n";
+      // Point at the first number beyond the largest usual shape below the count, or at the
+      // end of the text when there are too few for any shape.
+      std::size_t shape = 0;
+      for (std::size_t s : {3, 4, 9}) {
+        if (s < found.size()) shape = s;
+      }
+      Error e{"got " + std::to_string(found.size()) +
+              " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say "
+              "which with --as"};
+      if (shape > 0) {
+        e.line = found[shape].line;
+        e.column = found[shape].column;
+        e.message += " (number " + std::to_string(shape + 1) + " is here)";
+      } else {
+        e.line = 1;
+        e.column = 1;
+        for (std::size_t i = 0; i < text.size(); ++i) {
+          const auto ch = static_cast<unsigned char>(text[i]);
+          if (ch == '\n') {
+            ++e.line;
+            e.column = 1;
+          } else if ((ch & 0xC0) != 0x80) {
+            ++e.column;
+          }
+        }
+      }
+      io.err << "attiscope convert: " << e.describe() << "\n";
       return kExitBadInput;
     }
     report.warnings.push_back("no --as given: " + std::to_string(numbers.value().size()) +
