@@ -131,14 +131,22 @@ EulerAngles to_euler(const Rotation& world_R_body, const EulerConvention& c) {
     cc = qv[j] + q.w();
     d = qv[k] * sign - qv[i];
   }
-  double t2 = 2.0 * std::atan2(std::hypot(cc, d), std::hypot(a, b));  // [0, pi]
+  const double hyp_ab = std::hypot(a, b);
+  const double hyp_cd = std::hypot(cc, d);
+  double t2 = 2.0 * std::atan2(hyp_cd, hyp_ab);  // [0, pi]
   const double half_sum = std::atan2(b, a);
   const double half_diff = std::atan2(d, cc);
   double t1 = half_sum - half_diff;
   double t3 = half_sum + half_diff;
   if (!proper) {
     t3 *= sign;
-    t2 -= 0.5 * M_PI;
+    // The paper's t2 - pi/2 cancels when the middle angle is small (a level pitch): about
+    // 1e-16 absolute, but a 1e-9 rad pitch then keeps only 7 digits. The same angle without
+    // the subtraction, from tan(x - pi/4) = (tan x - 1) / (tan x + 1) with tan x = |cd|/|ab|:
+    // sin t2 = (|cd|^2 - |ab|^2) / 2, cos t2 = |ab| |cd| (for a unit quaternion), and
+    // |cd|^2 - |ab|^2 = 4 (w q_j - sign q_i q_k) exactly, so small pitches keep full
+    // relative precision and the lock side (|ab| or |cd| near 0) stays as accurate as before.
+    t2 = std::atan2(2.0 * (q.w() * qv[j] - sign * qv[i] * qv[k]), hyp_ab * hyp_cd);
   }
 
   EulerAngles out;

@@ -288,6 +288,25 @@ TEST(EulerTest, WrapPi) {
   EXPECT_EQ(wrap_pi(0.25), 0.25);
 }
 
+TEST(EulerTest, TinyTurnsKeepRelativePrecision) {
+  // A 1e-9 rad turn: to first order every Tait-Bryan sequence gives the rotation vector's
+  // components in its axis order (the second-order terms are ~1e-18), so the angles must be
+  // right to far better than their own size, not just to 1e-12 absolute.
+  const Eigen::Vector3d u = Eigen::Vector3d(1, -2, 3).normalized();
+  for (double t : {1e-9, -1e-12}) {
+    const Eigen::Vector3d v = u * t;
+    const Rotation r = test::AxisTurn(u, t);
+    for (const EulerConvention& c : all_euler_conventions()) {
+      if (c.proper()) continue;  // a tiny turn is at lock in a proper sequence
+      const EulerAngles e = to_euler(r, c);
+      for (int k = 0; k < 3; ++k) {
+        EXPECT_NEAR(e.angles_rad(k), v(static_cast<int>(c.axes[static_cast<std::size_t>(k)])), 1e-17)
+            << c.name() << " angle " << k << " turn " << t;
+      }
+    }
+  }
+}
+
 TEST(EulerTest, SympyFixtureMatrices) {
   // Source: tests/core/fixtures/euler24.json, written by tests/reference/gen_euler_fixtures.py:
   // sympy 1.11 exact products of active elementary rotations, 25 significant digits, for the
