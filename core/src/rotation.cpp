@@ -10,10 +10,11 @@ namespace attiscope {
 Eigen::Quaterniond canonical_sign(const Eigen::Quaterniond& q) {
   // w > 0 decides; at w == 0 (a 180-degree turn) the first non-zero of x, y, z is made
   // positive so that the printed form is unique.
+  // Adding +0.0 turns a -0.0 component into +0.0, so no "-0" is ever printed.
   const double lead[4] = {q.w(), q.x(), q.y(), q.z()};
   for (double c : lead) {
-    if (c > 0.0) return q;
-    if (c < 0.0) return Eigen::Quaterniond(-q.coeffs());
+    if (c > 0.0) return Eigen::Quaterniond(Eigen::Vector4d(q.coeffs().array() + 0.0));
+    if (c < 0.0) return Eigen::Quaterniond(Eigen::Vector4d(-q.coeffs().array() + 0.0));
   }
   return q;
 }

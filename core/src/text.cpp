@@ -5,8 +5,10 @@
 #include <charconv>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <cstring>
 #include <limits>
+#include <string>
 
 #include "attiscope/core/matrix.hpp"
 #include "attiscope/core/quaternion.hpp"
@@ -92,6 +94,13 @@ std::size_t parse_number(std::string_view w, double* value) {
   double v = 0.0;
   const auto r = std::from_chars(rest.data(), rest.data() + rest.size(), v);
   if (r.ec != std::errc() && r.ec != std::errc::result_out_of_range) return 0;
+  if (r.ec == std::errc::result_out_of_range) {
+    // from_chars leaves v untouched when the number is out of range, so "1e5000" would read
+    // as 0. strtod says which way: +/-HUGE_VAL (infinite, refused later as not finite) on
+    // overflow, 0 or a subnormal on underflow.
+    const std::string digits(rest.data(), r.ptr);
+    v = std::strtod(digits.c_str(), nullptr);
+  }
   *value = sign * v;
   return i + static_cast<std::size_t>(r.ptr - rest.data());
 }

@@ -44,6 +44,7 @@ TEST(ConvertCliTest, BadInputExitsTwoWithAPlaceAndNoRotation) {
       {{"convert", "1 2"}, "got 2 numbers", 1, 4},
       {{"convert", "--json", "--as", "rotvec", "1 inf 0"}, "not finite", 1, 3},
       {{"convert", "--as", "quat-wxyz", "1e-300 0 0 0"}, "zero quaternion", 1, 1},
+      {{"convert", "--as", "quat-wxyz", "1 0 0 1e5000"}, "not finite", 1, 7},
   };
   const std::regex place("line [0-9]+, column [0-9]+");
   for (const Case& c : cases) {

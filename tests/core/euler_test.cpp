@@ -307,6 +307,24 @@ TEST(EulerTest, TinyTurnsKeepRelativePrecision) {
   }
 }
 
+TEST(EulerTest, NedFrdToEnuFlu) {
+  // Common practice (references.md T13 and pitfall 8): an attitude given in NED/FRD as
+  // intrinsic ZYX (yaw, pitch, roll) is (90 - yaw, -pitch, roll) in ENU/FLU when both frames
+  // are switched: (30, 10, 5) -> (60, -10, 5), (200, -20, 40) -> (-110, 20, 40).
+  Eigen::Matrix3d enu_R_ned;
+  enu_R_ned << 0, 1, 0, 1, 0, 0, 0, 0, -1;
+  const Eigen::Matrix3d frd_R_flu = Eigen::Vector3d(1, -1, -1).asDiagonal();
+  const EulerConvention zyx = Conv("ZYX");
+  const std::pair<Eigen::Vector3d, Eigen::Vector3d> cases[] = {{Deg(30, 10, 5), Deg(60, -10, 5)},
+                                                               {Deg(200, -20, 40), Deg(-110, 20, 40)}};
+  for (const auto& [ned, enu] : cases) {
+    const Eigen::Matrix3d ned_R_frd = from_euler(zyx, ned).matrix();
+    const Rotation enu_R_flu = from_matrix(Eigen::Matrix3d(enu_R_ned * ned_R_frd * frd_R_flu)).value();
+    EXPECT_TRUE(test::MatrixNear(to_euler(enu_R_flu, zyx).angles_rad, enu, kTight))
+        << (ned / kDeg).transpose();
+  }
+}
+
 TEST(EulerTest, SympyFixtureMatrices) {
   // Source: tests/core/fixtures/euler24.json, written by tests/reference/gen_euler_fixtures.py:
   // sympy 1.11 exact products of active elementary rotations, 25 significant digits, for the

@@ -156,6 +156,10 @@ TEST(RotationTest, CanonicalSign) {
   EXPECT_EQ(Quat(0.0, 0.0, -1.0, 0.0).quaternion().y(), 1.0);
   EXPECT_EQ(Quat(0.0, 0.0, 0.0, -1.0).quaternion().z(), 1.0);
   EXPECT_DOUBLE_EQ(Quat(0.0, -0.6, 0.8, 0.0).quaternion().x(), 0.6);
+  // No negative zero in the printed form.
+  EXPECT_FALSE(std::signbit(Quat(-0.0, 1.0, 0.0, -0.0).quaternion().w()));
+  EXPECT_FALSE(std::signbit(Quat(-0.0, 1.0, 0.0, -0.0).quaternion().z()));
+  EXPECT_FALSE(std::signbit(Quat(0.0, -1.0, 0.0, 0.0).quaternion().w()));
   // The stored sign is kept for tracks.
   EXPECT_LT(Quat(-1.0, 0.0, 0.0, 0.0).stored_quaternion().w(), 0.0);
   EXPECT_EQ(Quat(-1.0, 0.0, 0.0, 0.0).quaternion().w(), 1.0);
@@ -220,6 +224,12 @@ TEST(RotationTest, ActiveRotationOfAVector) {
 TEST(RotationTest, GeodesicAngle) {
   // Common practice (references.md T11): the angle between I and Rz(90) is pi/2.
   EXPECT_NEAR(geodesic_angle(Rotation::identity(), elementary_rotation(Axis::Z, M_PI / 2)), M_PI / 2, kTight);
+  // references.md T11 (Huynh 2009, definitions from memory there): arccos|q1 . q2| is half
+  // the geodesic angle, pi/4 here; at 180 degrees it is pi/2, the largest.
+  const Rotation rz90 = elementary_rotation(Axis::Z, M_PI / 2);
+  EXPECT_NEAR(std::acos(std::abs(rz90.quaternion().dot(Rotation::identity().quaternion()))), M_PI / 4,
+              kTight);
+  EXPECT_NEAR((Rotation::identity().matrix() - rz90.matrix()).norm(), 2.0, kTight);  // 2 sqrt2 sin(t/2)
   // Sign-blind, symmetric, and accurate at the ends of its range, where acos would not be.
   const Rotation a = Quat(0.2, -0.4, 0.1, 0.8);
   EXPECT_EQ(geodesic_angle(a, a.negated()), 0.0);

@@ -61,6 +61,21 @@ TEST(TextTest, NanAndInfAreNumbersThatReadingsRefuse) {
   EXPECT_EQ(q.error().column, 5);
 }
 
+TEST(TextTest, OutOfRangeNumbersAreNotZero) {
+  // A number beyond the double range is infinite (and a reading refuses it with its place),
+  // never silently 0; one below the range is 0 or subnormal.
+  const auto r = scan_numbers("1e5000 -1e400 1e-400 2.5e-320");
+  ASSERT_TRUE(r.ok());
+  EXPECT_TRUE(std::isinf(r.value()[0].value) && r.value()[0].value > 0);
+  EXPECT_TRUE(std::isinf(r.value()[1].value) && r.value()[1].value < 0);
+  EXPECT_EQ(r.value()[2].value, 0.0);
+  EXPECT_GT(r.value()[3].value, 0.0);
+  EXPECT_LT(r.value()[3].value, 1e-319);
+  const auto q = read_explicit("1e5000 0 0 1", ReadingKind::QuatWxyz, Options());
+  ASSERT_FALSE(q.ok());
+  EXPECT_EQ(q.error().column, 1);
+}
+
 TEST(TextTest, UnknownWordsNameTheirPlace) {
   for (const auto& [text, line, column] : std::vector<std::tuple<std::string, int, int>>{
            {"1 2 foo", 1, 5}, {"1 2\n  3x", 2, 3}, {"deg 1", 1, 1}, {"1.2.3", 1, 1}, {"information", 1, 1}}) {
