@@ -48,6 +48,13 @@ def main():
                 err = np.abs(rc.matrix_of(j) - want).max()
                 f.check(err <= TIGHT, "%s %s %s %s: matrix differs from scipy by %.3g" % (kind, seq, unit, deg, err))
 
+    # The acceptance example, as the command is written there (no --as: three numbers
+    # read as intrinsic ZYX degrees by default).
+    j = rc.convert(exe, ["--euler", "ZYX"], "30 20 10")
+    want = Rotation.from_euler("ZYX", [30, 20, 10], degrees=True).as_matrix()
+    err = np.abs(rc.matrix_of(j) - want).max()
+    f.check(err <= TIGHT, "convert --json --euler ZYX \"30 20 10\": matrix differs from scipy by %.3g" % err)
+
     # 2. Rotation in -> angles in all 24 conventions (euler_all of one call per rotation).
     quats = Rotation.random(40, random_state=rc.SEED).as_quat()  # x y z w
     for q in quats:
