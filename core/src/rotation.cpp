@@ -7,6 +7,12 @@
 
 namespace attiscope {
 
+namespace {
+// Above this norm the plain sum of squares keeps full precision (its square, 1e-300, is
+// still a normal double).
+constexpr double kDirectNormMin = 1e-150;
+}  // namespace
+
 Eigen::Quaterniond canonical_sign(const Eigen::Quaterniond& q) {
   // w > 0 decides; at w == 0 (a 180-degree turn) the first non-zero of x, y, z is made
   // positive so that the printed form is unique.
@@ -20,9 +26,14 @@ Eigen::Quaterniond canonical_sign(const Eigen::Quaterniond& q) {
 }
 
 Rotation::Rotation(const Eigen::Quaterniond& hamilton_wxyz) : q_(hamilton_wxyz) {
-  // Scale by the largest magnitude first so the norm neither overflows (1e200 squared is
-  // infinite) nor underflows (1e-200 squared is 0): any finite, non-zero four numbers name
-  // a direction in 4D.
+  const double n = q_.norm();
+  if (std::isfinite(n) && n >= kDirectNormMin) {
+    q_.coeffs() /= n;
+    return;
+  }
+  // The squared norm overflowed (1e200 squared is infinite) or lost its digits to underflow
+  // (1e-200 squared is 0): scale by the largest magnitude first. Any finite, non-zero four
+  // numbers name a direction in 4D.
   const double scale = q_.coeffs().cwiseAbs().maxCoeff();
   assert(std::isfinite(scale) && scale > 0.0 && "Rotation built from a zero or non-finite quaternion");
   q_.coeffs() /= scale;
