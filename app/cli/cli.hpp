@@ -64,6 +64,7 @@ std::string common_options_help();
 std::string input_text(const CommonOptions& options, std::istream& in);
 
 int run_convert(const std::vector<std::string>& args, Streams io);
+int run_render(const std::vector<std::string>& args, Streams io);
 
 /// The top-level dispatcher: args excludes the program name.
 int run(const std::vector<std::string>& args, Streams io);

@@ -15,6 +15,7 @@ struct Subcommand {
 
 const Subcommand kSubcommands[] = {
     {"convert", "read one pose, print every representation", run_convert},
+    {"render", "headless PNG of the body in a pose", run_render},
 };
 
 void print_usage(std::ostream& os) {

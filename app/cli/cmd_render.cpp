@@ -1,0 +1,247 @@
+// cmd_render.cpp: `attiscope render [TEXT] --out F.png`: a picture of the body in a pose,
+// made headless (EGL surfaceless context, no display needed).
+#include <cstdlib>
+#include <iostream>
+#include <sstream>
+
+#include "attiscope/core/euler.hpp"
+#include "cli/cli.hpp"
+
+#ifdef ATTISCOPE_HAVE_RENDER
+#include "attiscope/render/headless.hpp"
+#include "attiscope/render/scene_renderer.hpp"
+#endif
+
+namespace attiscope::cli {
+
+namespace {
+
+/// Largest picture side accepted, in pixels.
+constexpr int kMaxSide = 8192;
+/// Default picture size.
+constexpr int kDefaultWidth = 1024, kDefaultHeight = 768;
+/// Camera distance that frames the body alone, and the body inside the gimbal rings.
+constexpr double kBodyViewDistance = 6.2;
+constexpr double kRingsViewDistance = 8.6;
+
+std::string render_help() {
+  std::string models, views;
+#ifdef ATTISCOPE_HAVE_RENDER
+  for (const auto& m : render::model_infos())
+    models += std::string("    ") + m.name + ": " + m.summary + "\n";
+  views = render::view_preset_list();
+#else
+  models = "    (this build has no renderer)\n";
+#endif
+  return "usage: attiscope render [TEXT] --out F.png [--size WxH] [--model NAME] [--view NAME]\n"
+         "                        [--rings] [--ghost TEXT] [--world ENU|NED|XYZ] [--body FLU|FRD|RDF]\n"
+         "                        [--model-file F.obj|F.stl] [--as READING] [options]\n"
+         "\n"
+         "Draws the body in the pose read from TEXT (or standard input) and writes a PNG, with no\n"
+         "display needed (EGL surfaceless; software rendering when there is no GPU).\n"
+         "\n"
+         "  --out F.png        the picture to write (required)\n"
+         "  --size WxH         picture size in pixels (default 1024x768)\n"
+         "  --model NAME       body model (default box):\n" +
+         models +
+         "  --model-file F     your own model, OBJ or STL, written in body coordinates\n"
+         "  --view NAME        camera preset, in world terms: " +
+         views +
+         " (default iso)\n"
+         "  --rings            draw the gimbal rings of the --euler convention around the body\n"
+         "  --ghost TEXT       a reference pose (read like TEXT), drawn translucent\n"
+         "  --world NAME       world frame: ENU (z up, default), NED (z down), XYZ (z up)\n"
+         "  --body NAME        body frame the model is placed in: FLU (default), FRD, RDF (camera)\n"
+         "  --no-labels        no axis letters\n"
+         "\n"
+         "Examples:\n"
+         "  attiscope render --as euler --euler ZYX \"30 20 10\" --out pose.png\n"
+         "  attiscope render --as quat-wxyz \"0.7071 0 0 0.7071\" --model aircraft --view top --out a.png\n"
+         "  attiscope render --as euler \"0 80 0\" --rings --out near-lock.png\n"
+         "\n";
+}
+
+}  // namespace
+
+#ifdef ATTISCOPE_HAVE_RENDER
+namespace {
+
+std::optional<ReadingKind> reading_by_count(std::size_t n) {
+  switch (n) {
+    case 3: return ReadingKind::Euler;
+    case 4: return ReadingKind::QuatWxyz;
+    case 9: return ReadingKind::MatrixRows;
+    default: return std::nullopt;
+  }
+}
+
+/// Reads one pose from a text with the shared options (the same reading as `convert`).
+Expected<ExplicitReading> read_pose(const std::string& text, const CommonOptions& o, const char* what) {
+  std::optional<ReadingKind> kind = o.as;
+  std::vector<std::string> warnings;
+  if (!kind) {
+    auto numbers = scan_numbers(text);
+    if (!numbers) return numbers.error();
+    kind = reading_by_count(numbers.value().size());
+    if (!kind) {
+      return Error(
+          std::string(what) + ": got " + std::to_string(numbers.value().size()) +
+          " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say which with "
+          "--as");
+    }
+    warnings.push_back(std::string("no --as given: ") + what + " read as " + reading_kind_name(*kind));
+  }
+  ExplicitReadingOptions ro;
+  ro.euler = o.euler;
+  ro.unit = o.unit;
+  ro.rotvec_unit = o.unit_given ? o.unit : AngleUnit::Radians;
+  auto r = read_explicit(text, *kind, ro);
+  if (!r) return r.error();
+  for (const std::string& w : warnings) r.value().warnings.insert(r.value().warnings.begin(), w);
+  return r;
+}
+
+bool parse_size(const std::string& s, int* w, int* h) {
+  const std::size_t x = s.find_first_of("xX");
+  if (x == std::string::npos) return false;
+  try {
+    std::size_t a = 0, b = 0;
+    *w = std::stoi(s.substr(0, x), &a);
+    *h = std::stoi(s.substr(x + 1), &b);
+    if (a != x || b != s.size() - x - 1) return false;
+  } catch (...) {
+    return false;
+  }
+  return *w >= 1 && *h >= 1 && *w <= kMaxSide && *h <= kMaxSide;
+}
+
+}  // namespace
+#endif
+
+int run_render(const std::vector<std::string>& args, Streams io) {
+  CommonOptions o;
+  const std::vector<OptionSpec> own = {{"--out", true},       {"--size", true},   {"--model", true},
+                                       {"--view", true},      {"--rings", false}, {"--ghost", true},
+                                       {"--world", true},     {"--body", true},   {"--model-file", true},
+                                       {"--no-labels", false}};
+  if (auto err = parse_common(args, own, &o)) {
+    io.err << "attiscope render: " << *err << "\n";
+    return kExitBadInput;
+  }
+  if (o.help) {
+    io.out << render_help() << common_options_help();
+    return kExitOk;
+  }
+#ifndef ATTISCOPE_HAVE_RENDER
+  io.err << "attiscope render: this build has no renderer (configured with ATTISCOPE_BUILD_GUI=OFF)\n";
+  return kExitBadInput;
+#else
+  const auto out = o.last("--out");
+  if (!out) {
+    io.err << "attiscope render: --out F.png is required (see --help)\n";
+    return kExitBadInput;
+  }
+  render::SceneState scene;
+  scene.width_px = kDefaultWidth;
+  scene.height_px = kDefaultHeight;
+  if (auto s = o.last("--size")) {
+    if (!parse_size(*s, &scene.width_px, &scene.height_px)) {
+      io.err << "attiscope render: --size needs WxH with whole numbers from 1 to " << kMaxSide << ", got '"
+             << *s << "'\n";
+      return kExitBadInput;
+    }
+  }
+  if (auto m = o.last("--model")) {
+    auto kind = render::parse_model_kind(*m);
+    if (!kind) {
+      io.err << "attiscope render: unknown model '" << *m << "'; use one of " << render::model_list() << "\n";
+      return kExitBadInput;
+    }
+    scene.model.kind = *kind;
+  }
+  if (auto v = o.last("--view")) {
+    auto view = render::parse_view_preset(*v);
+    if (!view) {
+      io.err << "attiscope render: unknown view '" << *v << "'; use one of " << render::view_preset_list()
+             << "\n";
+      return kExitBadInput;
+    }
+    scene.camera = render::Camera::preset(*view);
+  }
+  if (auto w = o.last("--world")) {
+    auto world = render::parse_world_frame(*w);
+    if (!world) {
+      io.err << "attiscope render: unknown world frame '" << *w << "'; use ENU, NED or XYZ\n";
+      return kExitBadInput;
+    }
+    scene.world = *world;
+  }
+  if (auto b = o.last("--body")) {
+    auto body = render::parse_body_frame(*b);
+    if (!body) {
+      io.err << "attiscope render: unknown body frame '" << *b << "'; use FLU, FRD or RDF\n";
+      return kExitBadInput;
+    }
+    scene.body = *body;
+  }
+  scene.show_labels = !o.has("--no-labels");
+  std::optional<render::Mesh> user_mesh;
+  if (auto f = o.last("--model-file")) {
+    auto mesh = render::load_mesh_file(*f);
+    if (!mesh) {
+      io.err << "attiscope render: " << mesh.error().describe() << "\n";
+      return kExitBadInput;
+    }
+    user_mesh = std::move(mesh.value());
+    scene.model.user_mesh = true;
+  }
+  const std::string text = input_text(o, io.in);
+  auto pose = read_pose(text, o, "the pose");
+  if (!pose) {
+    io.err << "attiscope render: " << pose.error().describe() << "\n";
+    return kExitBadInput;
+  }
+  scene.world_R_body = pose.value().rotation;
+  for (const std::string& w : pose.value().warnings) io.err << "attiscope render: warning: " << w << "\n";
+  if (auto g = o.last("--ghost")) {
+    auto ghost = read_pose(*g, o, "the ghost");
+    if (!ghost) {
+      io.err << "attiscope render: --ghost: " << ghost.error().describe() << "\n";
+      return kExitBadInput;
+    }
+    scene.ghost_world_R_body = ghost.value().rotation;
+  }
+  scene.camera.distance = kBodyViewDistance;
+  if (o.has("--rings")) {
+    scene.rings = to_euler(scene.world_R_body, o.euler);
+    scene.camera.distance = kRingsViewDistance;
+  }
+
+  auto context = render::HeadlessContext::create();
+  if (!context) {
+    io.err << "attiscope render: " << context.error().describe() << "\n";
+    return kExitBadInput;
+  }
+  auto renderer = render::SceneRenderer::create();
+  if (!renderer) {
+    io.err << "attiscope render: " << renderer.error().describe() << "\n";
+    return kExitBadInput;
+  }
+  if (user_mesh) renderer.value()->set_user_mesh(*user_mesh);
+  const render::Image image = renderer.value()->render_image(scene);
+  for (const std::string& w : renderer.value()->warnings())
+    io.err << "attiscope render: warning: " << w << "\n";
+  auto written = render::write_png(*out, image);
+  if (!written) {
+    io.err << "attiscope render: " << written.error().describe() << "\n";
+    return kExitBadInput;
+  }
+  if (scene.rings && scene.rings->at_lock) {
+    io.err << "attiscope render: note: the pose is at gimbal lock in " << o.euler.name()
+           << " (the third angle is set to 0 and the first carries the free turn)\n";
+  }
+  return kExitOk;
+#endif
+}
+
+}  // namespace attiscope::cli

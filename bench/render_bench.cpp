@@ -1,0 +1,124 @@
+// render_bench.cpp: figures for the renderer (a benchmark that prints, not a timed test).
+//
+//   render_bench [--frames N]
+//
+// Prints the median and 90th percentile time of the 3D pass alone (scene, body, rings,
+// labels and the antialiasing pass) into a 900x700 target, finished with glFinish, for
+// several variants, and the readback + PNG encode of a 1024x768 picture. The whole-process
+// time of `attiscope render` is measured by scripts/bench-render.sh.
+#define GL_GLEXT_PROTOTYPES 1
+#include <GL/glcorearb.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstring>
+#include <string>
+#include <vector>
+
+#include "attiscope/core/euler.hpp"
+#include "attiscope/render/headless.hpp"
+#include "attiscope/render/scene_renderer.hpp"
+
+using namespace attiscope;
+using namespace attiscope::render;
+
+namespace {
+
+constexpr double kDeg = 3.14159265358979323846 / 180.0;
+
+struct Figures {
+  double median_ms, p90_ms;
+};
+
+template <class F>
+Figures time_it(int frames, F&& f) {
+  std::vector<double> t;
+  f();  // warm-up: first-use uploads and shader variants
+  glFinish();
+  for (int i = 0; i < frames; ++i) {
+    const auto a = std::chrono::steady_clock::now();
+    f();
+    glFinish();
+    t.push_back(std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - a).count());
+  }
+  std::sort(t.begin(), t.end());
+  return {t[t.size() / 2], t[std::min(t.size() - 1, t.size() * 9 / 10)]};
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  int frames = 40;
+  for (int i = 1; i + 1 < argc; ++i) {
+    if (std::strcmp(argv[i], "--frames") == 0) frames = std::max(1, std::atoi(argv[i + 1]));
+  }
+  auto ctx = HeadlessContext::create();
+  if (!ctx) {
+    std::fprintf(stderr, "render_bench: %s\n", ctx.error().describe().c_str());
+    return 2;
+  }
+  std::printf("renderer: %s, %d frames per figure\n", ctx.value()->renderer_name().c_str(), frames);
+  struct Variant {
+    const char* name;
+    ModelKind model;
+    bool rings, ghost;
+    Antialiasing aa;
+  };
+  const Variant variants[] = {
+      {"box, post AA", ModelKind::Box, false, false, Antialiasing::Post},
+      {"box, no AA", ModelKind::Box, false, false, Antialiasing::None},
+      {"quadcopter + rings + ghost, post AA", ModelKind::Quadcopter, true, true, Antialiasing::Post},
+      {"quadcopter + rings + ghost, no AA", ModelKind::Quadcopter, true, true, Antialiasing::None},
+      {"aircraft + rings, post AA", ModelKind::Aircraft, true, false, Antialiasing::Post},
+  };
+  for (const Variant& v : variants) {
+    RendererOptions opt;
+    opt.antialiasing = v.aa;
+    auto r = SceneRenderer::create(opt);
+    if (!r) {
+      std::fprintf(stderr, "render_bench: %s\n", r.error().describe().c_str());
+      return 2;
+    }
+    SceneState s;
+    s.width_px = 900;
+    s.height_px = 700;
+    s.model.kind = v.model;
+    s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30, 20, 10) * kDeg);
+    if (v.rings) s.rings = to_euler(s.world_R_body, EulerConvention{});
+    if (v.ghost) s.ghost_world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(40, 25, 5) * kDeg);
+    s.camera.distance = v.rings ? 8.6 : 6.2;
+    // The window's case: draw into a region of a bound framebuffer (an FBO stands in here).
+    GLuint fbo = 0, rb[2] = {0, 0};
+    glGenFramebuffers(1, &fbo);
+    glGenRenderbuffers(2, rb);
+    glBindRenderbuffer(GL_RENDERBUFFER, rb[0]);
+    glRenderbufferStorage(GL_RENDERBUFFER, GL_RGBA8, 1600, 900);
+    glBindRenderbuffer(GL_RENDERBUFFER, rb[1]);
+    glRenderbufferStorage(GL_RENDERBUFFER, GL_DEPTH24_STENCIL8, 1600, 900);
+    glBindFramebuffer(GL_FRAMEBUFFER, fbo);
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_RENDERBUFFER, rb[0]);
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, rb[1]);
+    const Region region{350, 100, 900, 700, 900};
+    const Figures f = time_it(frames, [&] { r.value()->draw(s, region); });
+    std::printf("3D pass 900x700, %-38s median %6.2f ms  p90 %6.2f ms  (%zu triangles)\n", v.name,
+                f.median_ms, f.p90_ms, r.value()->last_triangle_count());
+    glBindFramebuffer(GL_FRAMEBUFFER, 0);
+    glDeleteFramebuffers(1, &fbo);
+    glDeleteRenderbuffers(2, rb);
+  }
+  {
+    auto r = SceneRenderer::create();
+    SceneState s;
+    s.width_px = 1024;
+    s.height_px = 768;
+    Image img;
+    const Figures f = time_it(frames, [&] { img = r.value()->render_image(s); });
+    std::printf("render_image 1024x768 (pass + readback)            median %6.2f ms  p90 %6.2f ms\n",
+                f.median_ms, f.p90_ms);
+    const Figures p = time_it(std::max(frames / 4, 3), [&] { (void)write_png("render_bench.png", img); });
+    std::printf("PNG encode 1024x768 (libpng, zlib level %d)         median %6.2f ms  p90 %6.2f ms\n",
+                kPngCompressionLevel, p.median_ms, p.p90_ms);
+  }
+  return 0;
+}

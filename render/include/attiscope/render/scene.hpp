@@ -1,0 +1,69 @@
+// scene.hpp: what the Scene and Gimbal rings views show (no GL). The window fills a
+// SceneState from its document every frame; `attiscope render` fills one from its options.
+#pragma once
+
+#include <Eigen/Core>
+#include <optional>
+#include <string>
+
+#include "attiscope/core/euler.hpp"
+#include "attiscope/core/rotation.hpp"
+#include "attiscope/render/camera.hpp"
+#include "attiscope/render/frames.hpp"
+#include "attiscope/render/mesh.hpp"
+
+namespace attiscope::render {
+
+/// Which part of the picture to emphasise (the window's hover feedback).
+enum class Highlight { None, Body, Ghost, OuterRing, MiddleRing, InnerRing };
+
+/// Which body mesh to draw: one of ours, or the user mesh handed to the renderer.
+struct ModelChoice {
+  ModelKind kind = ModelKind::Box;
+  bool user_mesh = false;  ///< draw SceneRenderer::set_user_mesh's mesh instead
+};
+
+struct SceneState {
+  Rotation world_R_body;                       ///< the pose drawn: v_world = R v_body
+  std::optional<Rotation> ghost_world_R_body;  ///< a reference pose, drawn translucent
+  ModelChoice model;
+  Camera camera = Camera::preset(ViewPreset::Iso);
+  WorldFrame world = WorldFrame::enu();
+  BodyFrame body = BodyFrame::flu();
+  /// Gimbal rings: Euler angles of world_R_body in the chosen convention (core's to_euler).
+  /// Absent: no rings.
+  std::optional<EulerAngles> rings;
+  Highlight highlight = Highlight::None;
+  bool show_grid = true;
+  bool show_world_triad = true;
+  bool show_body_triad = true;
+  bool show_labels = true;
+  int width_px = 900;
+  int height_px = 700;
+};
+
+/// World-space length of the body triad's axes and of the world triad's.
+inline constexpr double kBodyTriadLength = 1.55;
+inline constexpr double kWorldTriadLength = 1.0;
+/// How far below the body (along world down) the ground grid and world triad sit.
+inline constexpr double kGroundDepth = 1.35;
+/// Radii of the outer, middle and inner gimbal rings (the body fits inside radius 1).
+inline constexpr double kRingRadius[3] = {2.05, 1.78, 1.51};
+
+/// World position of the tip of body axis `axis` (0 x, 1 y, 2 z) as drawn.
+Eigen::Vector3d body_axis_tip(const SceneState& state, int axis);
+/// World position of the tip of world axis `axis`, as drawn (at the ground, below the body).
+Eigen::Vector3d world_axis_tip(const SceneState& state, int axis);
+/// World position of the world triad's origin.
+Eigen::Vector3d world_triad_origin(const SceneState& state);
+
+/// The mesh-to-world matrix of the body: world_R_body * body_R_model for one of our models
+/// (placed by state.body), world_R_body alone for a user mesh (written in body coordinates).
+Eigen::Matrix3d world_R_model(const SceneState& state);
+
+/// Is the pixel (top-left origin, in a width_px x height_px view) on the body? `mesh` is the
+/// mesh drawn (build_model(state.model.kind), or the user mesh). Returns the world hit point.
+std::optional<Eigen::Vector3d> pick_body(const SceneState& state, const Mesh& mesh,
+                                         const Eigen::Vector2d& pixel);
+
+}  // namespace attiscope::render

@@ -1,0 +1,93 @@
+// scene_renderer.hpp: draws a SceneState with OpenGL 3.3 core: lit, depth-tested body,
+// ground grid, world and body triads with letter labels, a translucent reference ghost and
+// the gimbal rings; antialiased by a post pass (FXAA-style, cheap on llvmpipe).
+//
+// Needs a current OpenGL 3.3 core context (the window's, or a HeadlessContext) for its whole
+// life; create, use and destroy it on that context's thread. It never includes ImGui.
+//
+// Two targets:
+//  - draw(): into a region of the framebuffer bound now (the window's), which is much
+//    cheaper than an offscreen texture shown through ImGui::Image;
+//  - render_image(): into its own offscreen target, read back for export.
+#pragma once
+
+#include <array>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "attiscope/core/expected.hpp"
+#include "attiscope/render/image.hpp"
+#include "attiscope/render/mesh.hpp"
+#include "attiscope/render/scene.hpp"
+
+namespace attiscope::render {
+
+/// A region of the bound framebuffer, top-left origin (as a window toolkit gives it).
+struct Region {
+  int x = 0;
+  int y = 0;
+  int width = 0;
+  int height = 0;
+  int framebuffer_height = 0;  ///< to flip to OpenGL's bottom-left origin
+};
+
+enum class Antialiasing {
+  None,  ///< straight into the target
+  Post,  ///< draw into an internal target, then an edge-aware smoothing pass (default)
+};
+
+struct RendererOptions {
+  Antialiasing antialiasing = Antialiasing::Post;
+};
+
+/// Linear RGB palette of the scene (deliberately ours; readable on a projector).
+struct Palette {
+  std::array<float, 3> background_top{0.955f, 0.958f, 0.965f};
+  std::array<float, 3> background_bottom{0.855f, 0.868f, 0.885f};
+  std::array<float, 3> grid{0.50f, 0.54f, 0.60f};
+  std::array<float, 3> axis_x{0.86f, 0.16f, 0.13f};
+  std::array<float, 3> axis_y{0.16f, 0.62f, 0.22f};
+  std::array<float, 3> axis_z{0.15f, 0.35f, 0.85f};
+  std::array<float, 3> ghost{0.35f, 0.45f, 0.62f};
+  std::array<float, 3> highlight{1.0f, 0.78f, 0.25f};
+  std::array<float, 3> label_outline{1.0f, 1.0f, 1.0f};
+};
+
+class SceneRenderer {
+ public:
+  /// Compiles the shaders and uploads our models. Error (with the GL log) when a shader
+  /// does not compile: the context is not OpenGL 3.3 core.
+  static Expected<std::unique_ptr<SceneRenderer>> create(const RendererOptions& options = {});
+  ~SceneRenderer();
+  SceneRenderer(const SceneRenderer&) = delete;
+  SceneRenderer& operator=(const SceneRenderer&) = delete;
+
+  /// Draws into a region of the framebuffer bound now. state.width_px/height_px are ignored
+  /// (the region's size is used). Leaves the framebuffer binding as it was, and viewport,
+  /// scissor, depth test, blending, culling, program and vertex array in GL's defaults
+  /// (disabled / 0), restoring the viewport to the region.
+  void draw(const SceneState& state, const Region& region);
+
+  /// Renders into the renderer's offscreen target of state.width_px x state.height_px and
+  /// reads it back.
+  Image render_image(const SceneState& state);
+
+  /// The mesh drawn for SceneState::model.user_mesh; replaces any earlier one.
+  void set_user_mesh(const Mesh& mesh);
+  /// The CPU mesh of a model choice (for pick_body).
+  const Mesh& mesh(const ModelChoice& choice) const;
+
+  Palette& palette();
+  /// Things that went wrong without stopping the picture (no label font found, ...).
+  const std::vector<std::string>& warnings() const;
+  /// Triangles drawn by the last draw()/render_image().
+  std::size_t last_triangle_count() const;
+
+ private:
+  SceneRenderer();
+  struct State;
+  std::unique_ptr<State> state_;
+};
+
+}  // namespace attiscope::render

@@ -1,0 +1,726 @@
+// scene_renderer.cpp: the OpenGL 3.3 core scene renderer (see scene_renderer.hpp).
+#include "attiscope/render/scene_renderer.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstddef>
+#include <map>
+#include <optional>
+
+#include <Eigen/Geometry>
+
+#include "attiscope/render/gimbal.hpp"
+#include "font.hpp"
+#include "gl.hpp"
+#include "mesh_builder.hpp"
+#include "shaders.hpp"
+
+namespace attiscope::render {
+
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+/// Size the label font is baked at, and the label size on screen per pixel of view height.
+constexpr float kFontBakePx = 44.0f;
+constexpr float kLabelPerViewHeight = 1.0f / 26.0f;
+constexpr float kLabelMinPx = 14.0f, kLabelMaxPx = 34.0f;
+/// Half-size of the ground grid, in scene units.
+constexpr float kGridExtent = 7.0f;
+/// Ring tube radius, segments around the ring and around the tube.
+constexpr double kRingTube = 0.034;
+constexpr int kRingSegments = 72, kRingSides = 8;
+/// Translucency of the reference ghost, and how much of its colour is the ghost tint.
+constexpr float kGhostAlpha = 0.36f;
+constexpr float kGhostTint = 0.55f;
+constexpr float kHighlightGlow = 0.45f;
+
+Eigen::Matrix4f to_gl(const Eigen::Matrix4d& m) {
+  return m.cast<float>();
+}
+
+struct GpuMesh {
+  gl::VertexArray vao;
+  gl::Buffer vbo, ebo;
+  GLsizei count = 0;
+  std::size_t triangles = 0;
+};
+
+GpuMesh upload(const Mesh& mesh) {
+  GpuMesh g;
+  g.vao = gl::make_vertex_array();
+  g.vbo = gl::make_buffer();
+  g.ebo = gl::make_buffer();
+  glBindVertexArray(g.vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, g.vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(mesh.vertices.size() * sizeof(Vertex)),
+               mesh.vertices.data(), GL_STATIC_DRAW);
+  glBindBuffer(GL_ELEMENT_ARRAY_BUFFER, g.ebo.get());
+  glBufferData(GL_ELEMENT_ARRAY_BUFFER, static_cast<GLsizeiptr>(mesh.indices.size() * sizeof(std::uint32_t)),
+               mesh.indices.data(), GL_STATIC_DRAW);
+  glEnableVertexAttribArray(0);
+  glVertexAttribPointer(0, 3, GL_FLOAT, GL_FALSE, sizeof(Vertex),
+                        reinterpret_cast<const void*>(offsetof(Vertex, position)));
+  glEnableVertexAttribArray(1);
+  glVertexAttribPointer(1, 3, GL_FLOAT, GL_FALSE, sizeof(Vertex),
+                        reinterpret_cast<const void*>(offsetof(Vertex, normal)));
+  glEnableVertexAttribArray(2);
+  glVertexAttribPointer(2, 4, GL_FLOAT, GL_FALSE, sizeof(Vertex),
+                        reinterpret_cast<const void*>(offsetof(Vertex, color)));
+  glBindVertexArray(0);
+  g.count = static_cast<GLsizei>(mesh.indices.size());
+  g.triangles = mesh.triangle_count();
+  gl::check("mesh upload");
+  return g;
+}
+
+/// A colour target with depth, for the scene before the post pass or for export.
+struct Target {
+  gl::Framebuffer fbo;
+  gl::Texture color;
+  gl::Renderbuffer depth;
+  int width = 0, height = 0;
+
+  void ensure(int w, int h) {
+    if (fbo && w == width && h == height) return;
+    width = w;
+    height = h;
+    fbo = gl::make_framebuffer();
+    color = gl::make_texture();
+    depth = gl::make_renderbuffer();
+    glBindTexture(GL_TEXTURE_2D, color.get());
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, w, h, 0, GL_RGBA, GL_UNSIGNED_BYTE, nullptr);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_LINEAR);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_LINEAR);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_S, GL_CLAMP_TO_EDGE);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_T, GL_CLAMP_TO_EDGE);
+    glBindRenderbuffer(GL_RENDERBUFFER, depth.get());
+    glRenderbufferStorage(GL_RENDERBUFFER, GL_DEPTH24_STENCIL8, w, h);
+    glBindFramebuffer(GL_FRAMEBUFFER, fbo.get());
+    glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, color.get(), 0);
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
+    glBindTexture(GL_TEXTURE_2D, 0);
+    gl::check("target allocation");
+  }
+};
+
+/// Uniform locations of the mesh program.
+struct MeshUniforms {
+  GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow;
+};
+
+struct TextVertex {
+  float x, y, u, v;
+  float r, g, b, a;
+};
+
+Eigen::Vector3f vec(const std::array<float, 3>& a) {
+  return {a[0], a[1], a[2]};
+}
+
+/// Columns (u, v, d) with d along `dir`: a frame whose z axis is `dir`.
+Eigen::Matrix3d frame_along(const Eigen::Vector3d& dir) {
+  Eigen::Vector3d u, v;
+  const Eigen::Vector3d d = dir.normalized();
+  detail::orthonormal_basis(d, &u, &v);
+  Eigen::Matrix3d m;
+  m << u, v, d;
+  return m;
+}
+
+/// A pixel rectangle, top-left origin.
+struct PixelBox {
+  int x, y, width, height;
+};
+
+/// Screen bounds of everything drawn as a mesh (body and ghost by their model's bounding
+/// box, triads by their tips, rings by points around their circles), padded for tube and
+/// arrowhead radii and clipped to the view. nullopt when nothing is on screen.
+std::optional<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::AlignedBox3d& model_box, int w,
+                                          int h) {
+  constexpr double kPadPx = 3.0;
+  constexpr double kPadUnits = 0.12;  // arrowheads, ring tubes and pivots stick out this far
+  constexpr int kRingSamples = 24;
+  std::vector<Eigen::Vector3d> points;
+  auto add_box = [&](const Eigen::Matrix3d& world_R_mesh) {
+    for (int c = 0; c < 8; ++c) {
+      points.push_back(world_R_mesh * model_box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
+    }
+  };
+  add_box(world_R_model(st));
+  if (st.ghost_world_R_body) {
+    SceneState g = st;
+    g.world_R_body = *st.ghost_world_R_body;
+    add_box(world_R_model(g));
+  }
+  if (st.show_body_triad) {
+    for (int a = 0; a < 3; ++a) points.push_back(body_axis_tip(st, a));
+  }
+  if (st.show_world_triad) {
+    points.push_back(world_triad_origin(st));
+    for (int a = 0; a < 3; ++a) points.push_back(world_axis_tip(st, a));
+  }
+  if (st.rings) {
+    const GimbalRings g = gimbal_rings(*st.rings);
+    for (int i = 0; i < 3; ++i) {
+      const Eigen::Vector3d x = g.rings[i].axis_world.normalized();
+      const Eigen::Vector3d y = g.rings[i].plane_normal_world.normalized().cross(x);
+      for (int k = 0; k < kRingSamples; ++k) {
+        const double t = 2.0 * kPi * k / kRingSamples;
+        // Sampled points lie inside the true circle between samples; scale out to cover it.
+        points.push_back((kRingRadius[i] / std::cos(kPi / kRingSamples)) *
+                         (std::cos(t) * x + std::sin(t) * y));
+      }
+      const double reach = kRingRadius[i] + 0.32 + 0.18 * i + 0.14;
+      points.push_back(x * reach);
+      points.push_back(-x * reach);
+    }
+  }
+  const double focal_px = h / (2.0 * std::tan(st.camera.fov_y_rad / 2.0));
+  double x0 = 1e30, y0 = 1e30, x1 = -1e30, y1 = -1e30;
+  const Eigen::Vector3d eye = camera_pose(st.camera, st.world).eye;
+  for (const Eigen::Vector3d& pt : points) {
+    const Projected p = project_to_pixel(st.camera, st.world, w, h, pt);
+    if (!p.in_front) return PixelBox{0, 0, w, h};  // something is behind the camera: smooth everything
+    const double pad = kPadPx + kPadUnits * focal_px / std::max((pt - eye).norm() - kPadUnits, 1e-3);
+    x0 = std::min(x0, p.pixel.x() - pad);
+    y0 = std::min(y0, p.pixel.y() - pad);
+    x1 = std::max(x1, p.pixel.x() + pad);
+    y1 = std::max(y1, p.pixel.y() + pad);
+  }
+  const int ix0 = std::clamp(static_cast<int>(std::floor(x0)), 0, w);
+  const int iy0 = std::clamp(static_cast<int>(std::floor(y0)), 0, h);
+  const int ix1 = std::clamp(static_cast<int>(std::ceil(x1)), 0, w);
+  const int iy1 = std::clamp(static_cast<int>(std::ceil(y1)), 0, h);
+  if (ix1 <= ix0 || iy1 <= iy0) return std::nullopt;
+  return PixelBox{ix0, iy0, ix1 - ix0, iy1 - iy0};
+}
+}  // namespace
+
+struct SceneRenderer::State {
+  RendererOptions options;
+  Palette palette;
+  std::vector<std::string> warnings;
+  std::size_t triangles = 0;
+
+  gl::Program mesh_program, background_program, grid_program, post_program, text_program;
+  MeshUniforms mu{};
+  gl::VertexArray empty_vao;
+  GpuMesh grid, arrow, rod;
+  std::array<GpuMesh, 3> rings;
+  std::map<ModelKind, GpuMesh> models;
+  std::map<ModelKind, Mesh> cpu_models;
+  Mesh user_cpu;
+  GpuMesh user_gpu;
+  Target scene_target, export_target;
+
+  detail::BakedFont font;
+  bool font_tried = false;
+  gl::Texture atlas;
+  gl::VertexArray text_vao;
+  gl::Buffer text_vbo;
+  std::vector<TextVertex> text_vertices;
+
+  // Per-frame camera values.
+  Eigen::Matrix4f view_proj;
+  Eigen::Vector3d eye;
+  int view_w = 1, view_h = 1;
+
+  const GpuMesh& model_gpu(const ModelChoice& choice) {
+    if (choice.user_mesh && user_gpu.count > 0) return user_gpu;
+    auto it = models.find(choice.kind);
+    if (it == models.end()) it = models.emplace(choice.kind, upload(cpu_model(choice.kind))).first;
+    return it->second;
+  }
+  std::map<ModelKind, Eigen::AlignedBox3d> model_boxes;
+  Eigen::AlignedBox3d user_box;
+  Eigen::AlignedBox3d model_box(const ModelChoice& choice) {
+    if (choice.user_mesh && !user_cpu.indices.empty()) return user_box;
+    auto it = model_boxes.find(choice.kind);
+    if (it == model_boxes.end()) it = model_boxes.emplace(choice.kind, bounds(cpu_model(choice.kind))).first;
+    return it->second;
+  }
+  static Eigen::AlignedBox3d bounds(const Mesh& m) {
+    Eigen::AlignedBox3d b;
+    for (const Vertex& v : m.vertices)
+      b.extend(Eigen::Vector3f(v.position[0], v.position[1], v.position[2]).cast<double>());
+    return b;
+  }
+  const Mesh& cpu_model(ModelKind kind) {
+    auto it = cpu_models.find(kind);
+    if (it == cpu_models.end()) it = cpu_models.emplace(kind, build_model(kind)).first;
+    return it->second;
+  }
+
+  void ensure_font() {
+    if (font_tried) return;
+    font_tried = true;
+    std::string problem;
+    font = detail::bake_label_font(kFontBakePx, &problem);
+    if (font.coverage.empty()) {
+      warnings.push_back(problem);
+      return;
+    }
+    atlas = gl::make_texture();
+    glBindTexture(GL_TEXTURE_2D, atlas.get());
+    glPixelStorei(GL_UNPACK_ALIGNMENT, 1);
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_R8, font.width, font.height, 0, GL_RED, GL_UNSIGNED_BYTE,
+                 font.coverage.data());
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_LINEAR);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_LINEAR);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_S, GL_CLAMP_TO_EDGE);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_T, GL_CLAMP_TO_EDGE);
+    glBindTexture(GL_TEXTURE_2D, 0);
+    text_vao = gl::make_vertex_array();
+    text_vbo = gl::make_buffer();
+    glBindVertexArray(text_vao.get());
+    glBindBuffer(GL_ARRAY_BUFFER, text_vbo.get());
+    glEnableVertexAttribArray(0);
+    glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, sizeof(TextVertex), reinterpret_cast<const void*>(0));
+    glEnableVertexAttribArray(1);
+    glVertexAttribPointer(1, 2, GL_FLOAT, GL_FALSE, sizeof(TextVertex),
+                          reinterpret_cast<const void*>(offsetof(TextVertex, u)));
+    glEnableVertexAttribArray(2);
+    glVertexAttribPointer(2, 4, GL_FLOAT, GL_FALSE, sizeof(TextVertex),
+                          reinterpret_cast<const void*>(offsetof(TextVertex, r)));
+    glBindVertexArray(0);
+    gl::check("font atlas");
+  }
+
+  void draw_mesh(const GpuMesh& m, const Eigen::Matrix3d& linear, const Eigen::Vector3d& offset,
+                 const Eigen::Vector4f& tint, float alpha, const Eigen::Vector4f& glow) {
+    Eigen::Matrix4f model = Eigen::Matrix4f::Identity();
+    model.topLeftCorner<3, 3>() = linear.cast<float>();
+    model.topRightCorner<3, 1>() = offset.cast<float>();
+    const Eigen::Matrix3f normal = linear.inverse().transpose().cast<float>();
+    glUniformMatrix4fv(mu.model, 1, GL_FALSE, model.data());
+    glUniformMatrix3fv(mu.normal_matrix, 1, GL_FALSE, normal.data());
+    glUniform4fv(mu.tint, 1, tint.data());
+    glUniform1f(mu.alpha, alpha);
+    glUniform4fv(mu.glow, 1, glow.data());
+    glBindVertexArray(m.vao.get());
+    glDrawElements(GL_TRIANGLES, m.count, GL_UNSIGNED_INT, nullptr);
+    triangles += m.triangles;
+  }
+
+  void draw_arrow(const Eigen::Vector3d& from, const Eigen::Vector3d& dir, double length, double thickness,
+                  const Eigen::Vector3f& color, const Eigen::Vector4f& glow) {
+    Eigen::Matrix3d f = frame_along(dir);
+    f.col(0) *= thickness;
+    f.col(1) *= thickness;
+    f.col(2) *= length;
+    draw_mesh(arrow, f, from, Eigen::Vector4f(color.x(), color.y(), color.z(), 1.0f), 1.0f, glow);
+  }
+
+  void add_label(const std::string& text, const Eigen::Vector2d& at_px, const Eigen::Vector3f& color) {
+    if (font.coverage.empty()) return;
+    const float size = std::clamp(static_cast<float>(view_h) * kLabelPerViewHeight, kLabelMinPx, kLabelMaxPx);
+    const float s = size / font.pixel_height;
+    // Measure, then centre the text on the point.
+    float width = 0.0f;
+    for (char ch : text) {
+      if (ch >= 32 && ch < 127) width += font.glyphs[ch - 32].advance * s;
+    }
+    float pen_x = static_cast<float>(at_px.x()) - 0.5f * width;
+    const float pen_y = static_cast<float>(at_px.y()) + 0.36f * size;
+    const float iw = 1.0f / static_cast<float>(font.width), ih = 1.0f / static_cast<float>(font.height);
+    for (char ch : text) {
+      if (ch < 32 || ch >= 127) continue;
+      const detail::Glyph& g = font.glyphs[ch - 32];
+      const float x0 = pen_x + g.xoff * s, y0 = pen_y + g.yoff * s;
+      const float x1 = x0 + (g.x1 - g.x0) * s, y1 = y0 + (g.y1 - g.y0) * s;
+      const float u0 = g.x0 * iw, v0 = g.y0 * ih, u1 = g.x1 * iw, v1 = g.y1 * ih;
+      const TextVertex a{x0, y0, u0, v0, color.x(), color.y(), color.z(), 1.0f};
+      const TextVertex b{x1, y0, u1, v0, color.x(), color.y(), color.z(), 1.0f};
+      const TextVertex c{x1, y1, u1, v1, color.x(), color.y(), color.z(), 1.0f};
+      const TextVertex d{x0, y1, u0, v1, color.x(), color.y(), color.z(), 1.0f};
+      text_vertices.insert(text_vertices.end(), {a, b, c, a, c, d});
+      pen_x += g.advance * s;
+    }
+  }
+
+  void render_scene(const SceneState& st, int w, int h);
+  void collect_labels(const SceneState& st, int w, int h);
+  void draw_labels(int w, int h);
+};
+
+SceneRenderer::SceneRenderer() : state_(std::make_unique<State>()) {}
+SceneRenderer::~SceneRenderer() = default;
+
+Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOptions& options) {
+  std::unique_ptr<SceneRenderer> r(new SceneRenderer());
+  State& s = *r->state_;
+  s.options = options;
+  auto mesh_p = gl::make_program("mesh", detail::kMeshVertex, detail::kMeshFragment);
+  if (!mesh_p) return mesh_p.error();
+  auto bg_p = gl::make_program("background", detail::kFullscreenVertex, detail::kBackgroundFragment);
+  if (!bg_p) return bg_p.error();
+  auto grid_p = gl::make_program("grid", detail::kGridVertex, detail::kGridFragment);
+  if (!grid_p) return grid_p.error();
+  auto post_p = gl::make_program("post", detail::kFullscreenVertex, detail::kPostFragment);
+  if (!post_p) return post_p.error();
+  auto text_p = gl::make_program("text", detail::kTextVertex, detail::kTextFragment);
+  if (!text_p) return text_p.error();
+  s.mesh_program = std::move(mesh_p.value());
+  s.background_program = std::move(bg_p.value());
+  s.grid_program = std::move(grid_p.value());
+  s.post_program = std::move(post_p.value());
+  s.text_program = std::move(text_p.value());
+  const GLuint mp = s.mesh_program.get();
+  s.mu = {glGetUniformLocation(mp, "u_model"),     glGetUniformLocation(mp, "u_normal_matrix"),
+          glGetUniformLocation(mp, "u_view_proj"), glGetUniformLocation(mp, "u_eye"),
+          glGetUniformLocation(mp, "u_up"),        glGetUniformLocation(mp, "u_key"),
+          glGetUniformLocation(mp, "u_fill"),      glGetUniformLocation(mp, "u_tint"),
+          glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow")};
+  s.empty_vao = gl::make_vertex_array();
+
+  // Unit arrow along +z: shaft to 0.84, cone to 1 (radii scale with the arrow's thickness).
+  Mesh arrow;
+  detail::MeshBuilder ab(&arrow);
+  const detail::Color white = detail::rgb(1, 1, 1);
+  ab.cylinder(Eigen::Vector3d::Zero(), Eigen::Vector3d(0, 0, 0.84), 0.022, 12, white);
+  ab.cone(Eigen::Vector3d(0, 0, 0.82), Eigen::Vector3d(0, 0, 1.0), 0.062, 16, white);
+  s.arrow = upload(arrow);
+  Mesh rod;
+  detail::MeshBuilder rb(&rod);
+  rb.cylinder(Eigen::Vector3d(0, 0, -1), Eigen::Vector3d(0, 0, 1), 1.0, 10, white);
+  s.rod = upload(rod);
+  for (int i = 0; i < 3; ++i) {
+    Mesh ring;
+    detail::MeshBuilder b(&ring);
+    b.torus(Eigen::Vector3d::Zero(), Eigen::Vector3d::UnitZ(), kRingRadius[i], kRingTube, kRingSegments,
+            kRingSides, white);
+    // Pivot studs where the ring meets its own axis (model x).
+    for (double sgn : {1.0, -1.0}) {
+      b.cylinder(Eigen::Vector3d(sgn * (kRingRadius[i] - 0.06), 0, 0),
+                 Eigen::Vector3d(sgn * (kRingRadius[i] + 0.07), 0, 0), 0.055, 12, white);
+    }
+    s.rings[i] = upload(ring);
+  }
+  // The grid quad.
+  const float e = kGridExtent;
+  const float quad[] = {-e, -e, e, -e, e, e, -e, -e, e, e, -e, e};
+  s.grid.vao = gl::make_vertex_array();
+  s.grid.vbo = gl::make_buffer();
+  glBindVertexArray(s.grid.vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, s.grid.vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, sizeof quad, quad, GL_STATIC_DRAW);
+  glEnableVertexAttribArray(0);
+  glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, 2 * sizeof(float), nullptr);
+  glBindVertexArray(0);
+  s.grid.count = 6;
+  s.grid.triangles = 2;
+  gl::check("renderer creation");
+  return r;
+}
+
+void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
+  view_w = w;
+  view_h = h;
+  const WorldFrame& world = st.world;
+  const CameraPose pose = camera_pose(st.camera, world);
+  eye = pose.eye;
+  view_proj = to_gl(projection_matrix(st.camera, w, h) * view_matrix(st.camera, world));
+  const Eigen::Vector3d up = world.up.normalized();
+
+  // Background gradient (no depth).
+  glDisable(GL_DEPTH_TEST);
+  glDisable(GL_BLEND);
+  glDepthMask(GL_TRUE);
+  glClearDepth(1.0);
+  glClear(GL_DEPTH_BUFFER_BIT);
+  glUseProgram(background_program.get());
+  glUniform3fv(glGetUniformLocation(background_program.get(), "u_top"), 1, palette.background_top.data());
+  glUniform3fv(glGetUniformLocation(background_program.get(), "u_bottom"), 1,
+               palette.background_bottom.data());
+  glBindVertexArray(empty_vao.get());
+  glDrawArrays(GL_TRIANGLES, 0, 3);
+
+  const Eigen::Vector3d ground = world_triad_origin(st);
+  glEnable(GL_DEPTH_TEST);
+  glDepthFunc(GL_LEQUAL);
+
+  // Opaque meshes.
+  glUseProgram(mesh_program.get());
+  glUniformMatrix4fv(mu.view_proj, 1, GL_FALSE, view_proj.data());
+  const Eigen::Vector3f eyef = eye.cast<float>();
+  glUniform3fv(mu.eye, 1, eyef.data());
+  const Eigen::Vector3f upf = up.cast<float>();
+  glUniform3fv(mu.up, 1, upf.data());
+  const Eigen::Vector3f key =
+      (pose.world_R_view * Eigen::Vector3d(-0.38, 0.62, 0.68).normalized()).cast<float>();
+  const Eigen::Vector3f fill =
+      (pose.world_R_view * Eigen::Vector3d(0.7, -0.25, 0.45).normalized()).cast<float>();
+  glUniform3fv(mu.key, 1, key.data());
+  glUniform3fv(mu.fill, 1, fill.data());
+  const Eigen::Vector4f no_tint(0, 0, 0, 0), no_glow(0, 0, 0, 0);
+  const Eigen::Vector3f hl = vec(palette.highlight);
+  const Eigen::Vector4f glow(hl.x(), hl.y(), hl.z(), kHighlightGlow);
+  const Eigen::Vector3f axis_colors[3] = {vec(palette.axis_x), vec(palette.axis_y), vec(palette.axis_z)};
+
+  if (st.show_world_triad) {
+    for (int a = 0; a < 3; ++a) {
+      draw_arrow(ground, Eigen::Vector3d::Unit(a), kWorldTriadLength, 1.0, axis_colors[a], no_glow);
+    }
+  }
+  const GpuMesh& body = model_gpu(st.model);
+  const Eigen::Matrix3d world_R_mesh = world_R_model(st);
+  draw_mesh(body, world_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f,
+            st.highlight == Highlight::Body ? glow : no_glow);
+  if (st.show_body_triad) {
+    const Eigen::Matrix3d r = st.world_R_body.matrix();
+    for (int a = 0; a < 3; ++a)
+      draw_arrow(Eigen::Vector3d::Zero(), r.col(a), kBodyTriadLength, 1.0, axis_colors[a], no_glow);
+  }
+  if (st.rings) {
+    const GimbalRings g = gimbal_rings(*st.rings);
+    const Eigen::Vector3f base = margin_color(g.lock_margin_rad * 180.0 / kPi);
+    const float shade[3] = {0.80f, 1.0f, 1.16f};
+    const Highlight ring_hl[3] = {Highlight::OuterRing, Highlight::MiddleRing, Highlight::InnerRing};
+    for (int i = 0; i < 3; ++i) {
+      const GimbalRing& ring = g.rings[i];
+      const Eigen::Vector3f c = (base * shade[i]).cwiseMin(1.0f);
+      // Ring frame: x along the ring's axis, z along its circle's normal.
+      Eigen::Matrix3d m;
+      const Eigen::Vector3d x = ring.axis_world.normalized();
+      const Eigen::Vector3d z = ring.plane_normal_world.normalized();
+      m << x, z.cross(x), z;
+      const Eigen::Vector4f glow_i = st.highlight == ring_hl[i] ? glow : no_glow;
+      draw_mesh(rings[i], m, Eigen::Vector3d::Zero(), Eigen::Vector4f(c.x(), c.y(), c.z(), 1.0f), 1.0f,
+                glow_i);
+      // The ring's axis: a thin rod through the pivots, an arrowhead at its positive end.
+      const double reach = kRingRadius[i] + 0.32 + 0.18 * i;
+      const Eigen::Vector3f dark = c * 0.72f;
+      Eigen::Matrix3d rod_m = frame_along(x);
+      rod_m.col(0) *= 0.014;
+      rod_m.col(1) *= 0.014;
+      rod_m.col(2) *= reach;
+      draw_mesh(rod, rod_m, Eigen::Vector3d::Zero(), Eigen::Vector4f(dark.x(), dark.y(), dark.z(), 1.0f),
+                1.0f, glow_i);
+      draw_arrow(x * (reach - 0.2), x, 0.34, 1.6, dark, glow_i);
+    }
+  }
+  gl::check("opaque pass");
+
+  // Ground grid (blended, no depth writes so the triad and the body stay crisp over it).
+  if (st.show_grid) {
+    glEnable(GL_BLEND);
+    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+    glDepthMask(GL_FALSE);
+    const GLuint gp = grid_program.get();
+    glUseProgram(gp);
+    Eigen::Vector3d e1 = Eigen::Vector3d::UnitX() - up * up.x();
+    e1.normalize();
+    const Eigen::Vector3d e2 = up.cross(e1);
+    const Eigen::Vector3f o = ground.cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
+    glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
+    glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
+    glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
+    glBindVertexArray(grid.vao.get());
+    glDrawArrays(GL_TRIANGLES, 0, 6);
+    triangles += 2;
+    glDepthMask(GL_TRUE);
+    glDisable(GL_BLEND);
+  }
+
+  // Reference ghost: a depth-only pass first, so only its nearest surface is blended (a
+  // clean single layer instead of overlapping translucent shells).
+  if (st.ghost_world_R_body) {
+    SceneState gs = st;
+    gs.world_R_body = *st.ghost_world_R_body;
+    const Eigen::Matrix3d ghost_R_mesh = world_R_model(gs);
+    const Eigen::Vector3f gc = vec(palette.ghost);
+    glUseProgram(mesh_program.get());
+    glColorMask(GL_FALSE, GL_FALSE, GL_FALSE, GL_FALSE);
+    draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f, no_glow);
+    glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
+    glEnable(GL_BLEND);
+    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+    glDepthMask(GL_FALSE);
+    draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(),
+              Eigen::Vector4f(gc.x(), gc.y(), gc.z(), kGhostTint), kGhostAlpha,
+              st.highlight == Highlight::Ghost ? glow : no_glow);
+    glDepthMask(GL_TRUE);
+    glDisable(GL_BLEND);
+  }
+  glDisable(GL_DEPTH_TEST);
+  gl::check("scene pass");
+}
+
+void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
+  text_vertices.clear();
+  if (!st.show_labels) return;
+  ensure_font();
+  if (font.coverage.empty()) return;
+  const Eigen::Vector3f axis_colors[3] = {vec(palette.axis_x) * 0.85f, vec(palette.axis_y) * 0.8f,
+                                          vec(palette.axis_z) * 0.85f};
+  // A label sits just beyond its tip, pushed outward on the screen from the arrow's base.
+  auto place = [&](const Eigen::Vector3d& base, const Eigen::Vector3d& tip, const std::string& text,
+                   const Eigen::Vector3f& color) {
+    const Projected pt = project_to_pixel(st.camera, st.world, w, h, tip);
+    const Projected pb = project_to_pixel(st.camera, st.world, w, h, base);
+    if (!pt.in_front) return;
+    Eigen::Vector2d d = pt.pixel - (pb.in_front ? pb.pixel : pt.pixel);
+    const double size = std::clamp(static_cast<float>(h) * kLabelPerViewHeight, kLabelMinPx, kLabelMaxPx);
+    d = d.norm() > 1e-6 ? d.normalized() : Eigen::Vector2d(0, -1);
+    add_label(text, pt.pixel + d * size * 0.75, color);
+  };
+  if (st.show_world_triad) {
+    const Eigen::Vector3d o = world_triad_origin(st);
+    for (int a = 0; a < 3; ++a) place(o, world_axis_tip(st, a), st.world.axis_labels[a], axis_colors[a]);
+  }
+  if (st.show_body_triad) {
+    for (int a = 0; a < 3; ++a)
+      place(Eigen::Vector3d::Zero(), body_axis_tip(st, a), st.body.axis_labels[a], axis_colors[a]);
+  }
+  if (st.rings) {
+    const GimbalRings g = gimbal_rings(*st.rings);
+    const Eigen::Vector3f base = margin_color(g.lock_margin_rad * 180.0 / kPi) * 0.7f;
+    for (int i = 0; i < 3; ++i) {
+      const double reach = kRingRadius[i] + 0.32 + 0.18 * i + 0.14;
+      const std::string name =
+          std::string(1, axis_letter(g.rings[i].axis)) + std::to_string(g.rings[i].sequence_index + 1);
+      place(Eigen::Vector3d::Zero(), g.rings[i].axis_world.normalized() * reach, name, base);
+    }
+  }
+}
+
+void SceneRenderer::State::draw_labels(int w, int h) {
+  if (text_vertices.empty()) return;
+  glEnable(GL_BLEND);
+  glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+  const GLuint tp = text_program.get();
+  glUseProgram(tp);
+  glUniform2f(glGetUniformLocation(tp, "u_size"), static_cast<float>(w), static_cast<float>(h));
+  glUniform2f(glGetUniformLocation(tp, "u_texel"), 1.0f / static_cast<float>(font.width),
+              1.0f / static_cast<float>(font.height));
+  glUniform3fv(glGetUniformLocation(tp, "u_halo"), 1, palette.label_outline.data());
+  glUniform1i(glGetUniformLocation(tp, "u_atlas"), 0);
+  glActiveTexture(GL_TEXTURE0);
+  glBindTexture(GL_TEXTURE_2D, atlas.get());
+  glBindVertexArray(text_vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, text_vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(text_vertices.size() * sizeof(TextVertex)),
+               text_vertices.data(), GL_STREAM_DRAW);
+  glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(text_vertices.size()));
+  glBindTexture(GL_TEXTURE_2D, 0);
+  glDisable(GL_BLEND);
+  gl::check("labels");
+}
+
+void SceneRenderer::draw(const SceneState& state, const Region& region) {
+  State& s = *state_;
+  if (region.width <= 0 || region.height <= 0) return;
+  s.triangles = 0;
+  GLint prev_draw = 0, prev_read = 0;
+  glGetIntegerv(GL_DRAW_FRAMEBUFFER_BINDING, &prev_draw);
+  glGetIntegerv(GL_READ_FRAMEBUFFER_BINDING, &prev_read);
+  const int w = region.width, h = region.height;
+  const int gl_y = region.framebuffer_height - region.y - region.height;
+  s.collect_labels(state, w, h);
+  glViewport(region.x, gl_y, w, h);
+  glEnable(GL_SCISSOR_TEST);
+  glScissor(region.x, gl_y, w, h);
+  s.render_scene(state, w, h);
+  if (s.options.antialiasing == Antialiasing::Post) {
+    // Smooth only the pixels the meshes can cover: the background and the grid are smooth
+    // already (the grid's lines are antialiased analytically), and on a software rasteriser
+    // every post-processed pixel costs.
+    const auto box = mesh_pixel_bounds(state, s.model_box(state.model), w, h);
+    if (box) {
+      const int bx = box->x, by = box->y, bw = box->width, bh = box->height;
+      const int bgl_x = region.x + bx, bgl_y = region.framebuffer_height - region.y - by - bh;
+      s.scene_target.ensure(bw, bh);
+      glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+      glBindFramebuffer(GL_DRAW_FRAMEBUFFER, s.scene_target.fbo.get());
+      glDisable(GL_SCISSOR_TEST);
+      glBlitFramebuffer(bgl_x, bgl_y, bgl_x + bw, bgl_y + bh, 0, 0, bw, bh, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+      glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+      glViewport(bgl_x, bgl_y, bw, bh);
+      glEnable(GL_SCISSOR_TEST);
+      glScissor(bgl_x, bgl_y, bw, bh);
+      const GLuint pp = s.post_program.get();
+      glUseProgram(pp);
+      glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
+      glUniform2f(glGetUniformLocation(pp, "u_origin"), static_cast<float>(bgl_x), static_cast<float>(bgl_y));
+      glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(bw),
+                  1.0f / static_cast<float>(bh));
+      glActiveTexture(GL_TEXTURE0);
+      glBindTexture(GL_TEXTURE_2D, s.scene_target.color.get());
+      glBindVertexArray(s.empty_vao.get());
+      glDrawArrays(GL_TRIANGLES, 0, 3);
+      glBindTexture(GL_TEXTURE_2D, 0);
+      glViewport(region.x, gl_y, w, h);
+      glScissor(region.x, gl_y, w, h);
+      gl::check("post pass");
+    }
+  }
+  s.draw_labels(w, h);
+  // Leave GL as the caller's drawing expects it.
+  glDisable(GL_SCISSOR_TEST);
+  glDisable(GL_DEPTH_TEST);
+  glDisable(GL_BLEND);
+  glDepthMask(GL_TRUE);
+  glUseProgram(0);
+  glBindVertexArray(0);
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
+  gl::check("draw");
+}
+
+Image SceneRenderer::render_image(const SceneState& state) {
+  State& s = *state_;
+  const int w = std::max(state.width_px, 1), h = std::max(state.height_px, 1);
+  s.export_target.ensure(w, h);
+  GLint prev = 0;
+  glGetIntegerv(GL_FRAMEBUFFER_BINDING, &prev);
+  glBindFramebuffer(GL_FRAMEBUFFER, s.export_target.fbo.get());
+  draw(state, Region{0, 0, w, h, h});
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, s.export_target.fbo.get());
+  Image img;
+  img.width = w;
+  img.height = h;
+  img.rgba.resize(static_cast<std::size_t>(w) * h * 4);
+  glPixelStorei(GL_PACK_ALIGNMENT, 1);
+  glReadPixels(0, 0, w, h, GL_RGBA, GL_UNSIGNED_BYTE, img.rgba.data());
+  // GL rows run bottom to top; images run top to bottom.
+  const std::size_t row = static_cast<std::size_t>(w) * 4;
+  std::vector<std::uint8_t> tmp(row);
+  for (int y = 0; y < h / 2; ++y) {
+    std::uint8_t* a = &img.rgba[static_cast<std::size_t>(y) * row];
+    std::uint8_t* b = &img.rgba[static_cast<std::size_t>(h - 1 - y) * row];
+    std::copy(a, a + row, tmp.data());
+    std::copy(b, b + row, a);
+    std::copy(tmp.data(), tmp.data() + row, b);
+  }
+  glBindFramebuffer(GL_FRAMEBUFFER, static_cast<GLuint>(prev));
+  gl::check("read back");
+  return img;
+}
+
+void SceneRenderer::set_user_mesh(const Mesh& mesh) {
+  state_->user_cpu = mesh;
+  state_->user_box = State::bounds(mesh);
+  state_->user_gpu = upload(mesh);
+}
+
+const Mesh& SceneRenderer::mesh(const ModelChoice& choice) const {
+  if (choice.user_mesh && !state_->user_cpu.indices.empty()) return state_->user_cpu;
+  return state_->cpu_model(choice.kind);
+}
+
+Palette& SceneRenderer::palette() {
+  return state_->palette;
+}
+const std::vector<std::string>& SceneRenderer::warnings() const {
+  return state_->warnings;
+}
+std::size_t SceneRenderer::last_triangle_count() const {
+  return state_->triangles;
+}
+
+}  // namespace attiscope::render
