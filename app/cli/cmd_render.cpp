@@ -22,7 +22,7 @@ constexpr int kMaxSide = 8192;
 constexpr int kDefaultWidth = 1024, kDefaultHeight = 768;
 /// Camera distance that frames the body alone, and the body inside the gimbal rings.
 constexpr double kBodyViewDistance = 6.2;
-constexpr double kRingsViewDistance = 8.6;
+constexpr double kRingsViewDistance = 10.5;
 
 std::string render_help() {
   std::string models, views;

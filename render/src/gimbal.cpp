@@ -68,16 +68,19 @@ double outer_inner_axis_angle(const GimbalRings& rings) {
 }
 
 Eigen::Vector3f margin_color(double margin_deg) {
-  // Safe: a calm teal; caution: amber; warning: red, deepening toward lock.
-  const Eigen::Vector3f safe(0.16f, 0.58f, 0.62f);
-  const Eigen::Vector3f caution(0.93f, 0.62f, 0.12f);
-  const Eigen::Vector3f warning(0.90f, 0.22f, 0.16f);
-  const Eigen::Vector3f locked(0.70f, 0.05f, 0.10f);
+  // Safe: a calm teal; then through yellow to amber at the band's edge; in the band, red
+  // deepening toward lock. The step from amber to red marks the band's edge.
+  const Eigen::Vector3f safe(0.13f, 0.60f, 0.66f);
+  const Eigen::Vector3f yellow(0.90f, 0.78f, 0.18f);
+  const Eigen::Vector3f amber(0.96f, 0.55f, 0.10f);
+  const Eigen::Vector3f warning(0.90f, 0.20f, 0.15f);
+  const Eigen::Vector3f locked(0.66f, 0.04f, 0.12f);
   if (!(margin_deg == margin_deg)) return locked;  // NaN
+  const double mid = 0.5 * (kMarginWarningDeg + kMarginCautionDeg);
   if (margin_deg >= kMarginCautionDeg) return safe;
-  if (margin_deg > kMarginWarningDeg) {
-    return mix(caution, safe, (margin_deg - kMarginWarningDeg) / (kMarginCautionDeg - kMarginWarningDeg));
-  }
+  if (margin_deg >= mid) return mix(yellow, safe, (margin_deg - mid) / (kMarginCautionDeg - mid));
+  if (margin_deg > kMarginWarningDeg)
+    return mix(amber, yellow, (margin_deg - kMarginWarningDeg) / (mid - kMarginWarningDeg));
   return mix(locked, warning, margin_deg / kMarginWarningDeg);
 }
 

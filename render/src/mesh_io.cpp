@@ -267,9 +267,12 @@ Expected<Mesh> load_stl(std::string_view data) {
       return load_stl_binary(data);
     }
   }
+  // Otherwise text that starts with "solid" is ASCII; anything holding a NUL byte is a
+  // (damaged) binary file, whose header check gives the clearer message.
   std::size_t s = 0;
   while (s < data.size() && std::isspace(static_cast<unsigned char>(data[s]))) ++s;
-  if (lower(data.substr(s, 5)) == "solid") return load_stl_ascii(data);
+  const bool text = data.find('\0') == std::string_view::npos;
+  if (text && lower(data.substr(s, 5)) == "solid") return load_stl_ascii(data);
   return load_stl_binary(data);
 }
 

@@ -216,7 +216,7 @@ void build_imu(MeshBuilder& b) {
   b.box(Vector3d(-0.02, 0.02, t + 0.04), Vector3d(0.2, 0.2, 0.04), kCharcoal);  // the sensor chip
   b.disc(Vector3d(0.12, 0.14, t + 0.081), Vector3d::UnitZ(), 0.025, 8, kSilk);  // pin-1 dot
   b.box(Vector3d(-0.74, 0, t + 0.07), Vector3d(0.07, 0.26, 0.07), kShell);      // connector at the back
-  for (double sx : {0.7, -0.52}) {
+  for (double sx : {0.7, -0.7}) {
     for (double sy : {0.46, -0.46})
       b.annulus(Vector3d(sx, sy, t + 0.002), Vector3d::UnitZ(), 0.035, 0.06, 12, kGold);
   }
@@ -224,21 +224,23 @@ void build_imu(MeshBuilder& b) {
   // circled dot of a Z axis out of the board.
   const Vector3d n = Vector3d::UnitZ();
   const double z = t + 0.003;
-  const Vector3d o(0.36, -0.32, z);
-  b.strip(o, o + Vector3d(0.3, 0, 0), 0.035, n, kSilk);
-  b.flat_triangle(o + Vector3d(0.42, 0, 0), o + Vector3d(0.29, 0.06, 0), o + Vector3d(0.29, -0.06, 0), kSilk);
-  b.strip(o, o + Vector3d(0, 0.44, 0), 0.035, n, kSilk);
-  b.flat_triangle(o + Vector3d(0, 0.56, 0), o + Vector3d(-0.06, 0.43, 0), o + Vector3d(0.06, 0.43, 0), kSilk);
+  const Vector3d o(-0.42, -0.36, z);
+  b.strip(o, o + Vector3d(0.5, 0, 0), 0.035, n, kSilk);
+  b.flat_triangle(o + Vector3d(0.64, 0, 0), o + Vector3d(0.49, 0.065, 0), o + Vector3d(0.49, -0.065, 0),
+                  kSilk);
+  b.strip(o, o + Vector3d(0, 0.5, 0), 0.035, n, kSilk);
+  b.flat_triangle(o + Vector3d(0, 0.64, 0), o + Vector3d(-0.065, 0.49, 0), o + Vector3d(0.065, 0.49, 0),
+                  kSilk);
   b.annulus(o, n, 0.045, 0.07, 16, kSilk);
   b.disc(o + Vector3d(0, 0, 0.001), n, 0.022, 10, kSilk);
   // Letters drawn as strokes: "X" beside the X arrow, "Y" beside the Y arrow.
   const double h = 0.07, w = 0.05, sw = 0.022;
-  const Vector3d xc = o + Vector3d(0.30, 0.12, 0);
+  const Vector3d xc = o + Vector3d(0.56, -0.14, 0);
   b.strip(xc + Vector3d(-w, -h, 0), xc + Vector3d(w, h, 0), sw, n, kSilk);
   b.strip(xc + Vector3d(-w, h, 0), xc + Vector3d(w, -h, 0), sw, n, kSilk);
   // Letters read upright for someone looking down on the board with its front away from
   // them (front up the page, the board's right to the right): up is +x, right is -y.
-  const Vector3d yc = o + Vector3d(0.0, 0.66, 0);
+  const Vector3d yc = o + Vector3d(0.0, 0.76, 0);
   b.strip(yc + Vector3d(-h, 0, 0), yc, sw, n, kSilk);
   b.strip(yc, yc + Vector3d(h, w, 0), sw, n, kSilk);
   b.strip(yc, yc + Vector3d(h, -w, 0), sw, n, kSilk);

@@ -3,8 +3,22 @@
 
 namespace attiscope::render {
 
+Eigen::Vector3d ground_centre(const SceneState& state) {
+  return -(state.rings ? kGroundDepthRings : kGroundDepth) * state.world.up.normalized();
+}
+
+void ground_axes(const WorldFrame& world, Eigen::Vector3d* e1, Eigen::Vector3d* e2) {
+  const Eigen::Vector3d up = world.up.normalized();
+  Eigen::Vector3d f = Eigen::Vector3d::UnitX() - up * up.x();
+  if (f.norm() < 1e-9) f = Eigen::Vector3d::UnitY() - up * up.y();
+  *e1 = f.normalized();
+  *e2 = up.cross(*e1);
+}
+
 Eigen::Vector3d world_triad_origin(const SceneState& state) {
-  return -kGroundDepth * state.world.up.normalized();
+  Eigen::Vector3d e1, e2;
+  ground_axes(state.world, &e1, &e2);
+  return ground_centre(state) + kWorldTriadOffset * (e1 + e2);
 }
 
 Eigen::Vector3d body_axis_tip(const SceneState& state, int axis) {

@@ -22,8 +22,8 @@ namespace {
 constexpr double kPi = 3.14159265358979323846;
 /// Size the label font is baked at, and the label size on screen per pixel of view height.
 constexpr float kFontBakePx = 44.0f;
-constexpr float kLabelPerViewHeight = 1.0f / 26.0f;
-constexpr float kLabelMinPx = 14.0f, kLabelMaxPx = 34.0f;
+constexpr float kLabelPerViewHeight = 1.0f / 21.0f;
+constexpr float kLabelMinPx = 16.0f, kLabelMaxPx = 44.0f;
 /// Half-size of the ground grid, in scene units.
 constexpr float kGridExtent = 7.0f;
 /// Ring tube radius, segments around the ring and around the tube.
@@ -508,10 +508,14 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     glDepthMask(GL_FALSE);
     const GLuint gp = grid_program.get();
     glUseProgram(gp);
-    Eigen::Vector3d e1 = Eigen::Vector3d::UnitX() - up * up.x();
-    e1.normalize();
-    const Eigen::Vector3d e2 = up.cross(e1);
-    const Eigen::Vector3f o = ground.cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
+    Eigen::Vector3d e1, e2;
+    ground_axes(world, &e1, &e2);
+    const Eigen::Vector3d centre = ground_centre(st);
+    // The grid's coloured axis lines run through the world triad's foot.
+    const Eigen::Vector3d foot = ground - centre;
+    const Eigen::Vector2f axis_origin(static_cast<float>(foot.dot(e1)), static_cast<float>(foot.dot(e2)));
+    const Eigen::Vector3f o = centre.cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
+    glUniform2fv(glGetUniformLocation(gp, "u_axis_origin"), 1, axis_origin.data());
     glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
     glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
     glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
@@ -687,6 +691,8 @@ Image SceneRenderer::render_image(const SceneState& state) {
   img.rgba.resize(static_cast<std::size_t>(w) * h * 4);
   glPixelStorei(GL_PACK_ALIGNMENT, 1);
   glReadPixels(0, 0, w, h, GL_RGBA, GL_UNSIGNED_BYTE, img.rgba.data());
+  // The picture is opaque (blending leaves partial alpha where the grid was drawn).
+  for (std::size_t i = 3; i < img.rgba.size(); i += 4) img.rgba[i] = 255;
   // GL rows run bottom to top; images run top to bottom.
   const std::size_t row = static_cast<std::size_t>(w) * 4;
   std::vector<std::uint8_t> tmp(row);

@@ -93,6 +93,7 @@ uniform vec3 u_color;
 uniform vec3 u_x_color;
 uniform vec3 u_y_color;
 uniform float u_extent;
+uniform vec2 u_axis_origin;
 out vec4 o_color;
 float grid_line(vec2 c, float spacing, float width_px) {
   vec2 d = abs(fract(c / spacing - 0.5) - 0.5) * spacing / max(fwidth(c), vec2(1e-6));
@@ -104,14 +105,15 @@ float axis_line(float c, float width_px) {
   return 1.0 - smoothstep(0.5 * width_px - 0.5, 0.5 * width_px + 0.5, d);
 }
 void main() {
-  float minor = grid_line(v_uv, 0.25, 1.0) * 0.22;
-  float major = grid_line(v_uv, 1.0, 1.4) * 0.55;
+  float minor = grid_line(v_uv, 0.25, 1.0) * 0.16;
+  float major = grid_line(v_uv, 1.0, 1.3) * 0.45;
   float a = max(minor, major);
   vec3 c = u_color;
-  float ax = axis_line(v_uv.y, 2.2);  // the world x axis: where the y coordinate is 0
-  float ay = axis_line(v_uv.x, 2.2);
-  if (v_uv.x > 0.0 && ax > 0.0) { c = mix(c, u_x_color, ax); a = max(a, 0.75 * ax); }
-  if (v_uv.y > 0.0 && ay > 0.0) { c = mix(c, u_y_color, ay); a = max(a, 0.75 * ay); }
+  vec2 q = v_uv - u_axis_origin;
+  float ax = axis_line(q.y, 2.2);  // the world x axis: where the second coordinate is 0
+  float ay = axis_line(q.x, 2.2);
+  if (q.x > 0.0 && ax > 0.0) { c = mix(c, u_x_color, ax); a = max(a, 0.75 * ax); }
+  if (q.y > 0.0 && ay > 0.0) { c = mix(c, u_y_color, ay); a = max(a, 0.75 * ay); }
   float fade = 1.0 - smoothstep(0.45 * u_extent, u_extent, length(v_uv));
   o_color = vec4(c, a * fade);
 }

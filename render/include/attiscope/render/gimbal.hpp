@@ -51,9 +51,9 @@ inline constexpr double kMarginWarningDeg = 10.0;
 /// Lock margins up to this fade from the safe colour to the warning colour.
 inline constexpr double kMarginCautionDeg = 30.0;
 
-/// Linear RGB colour of a lock margin on the continuous scale: the safe colour from
-/// kMarginCautionDeg up, a blend to amber down to kMarginWarningDeg, then the warning red
-/// deepening to lock.
+/// RGB colour of a lock margin on the continuous scale: the safe teal from
+/// kMarginCautionDeg up, blending through yellow to amber down to kMarginWarningDeg, then
+/// (a clear step: the warning band) red deepening to lock.
 Eigen::Vector3f margin_color(double margin_deg);
 
 /// One row of the 24-convention margin table.

@@ -45,8 +45,12 @@ struct SceneState {
 /// World-space length of the body triad's axes and of the world triad's.
 inline constexpr double kBodyTriadLength = 1.55;
 inline constexpr double kWorldTriadLength = 1.0;
-/// How far below the body (along world down) the ground grid and world triad sit.
+/// How far below the body (along world down) the ground grid sits, without and with rings.
 inline constexpr double kGroundDepth = 1.35;
+inline constexpr double kGroundDepthRings = 2.6;
+/// Where the world triad stands on the ground: this far along the world's +x axis and
+/// along its left (up x +x), so the body does not hide it in the usual views.
+inline constexpr double kWorldTriadOffset = 1.5;
 /// Radii of the outer, middle and inner gimbal rings (the body fits inside radius 1).
 inline constexpr double kRingRadius[3] = {2.05, 1.78, 1.51};
 
@@ -54,8 +58,12 @@ inline constexpr double kRingRadius[3] = {2.05, 1.78, 1.51};
 Eigen::Vector3d body_axis_tip(const SceneState& state, int axis);
 /// World position of the tip of world axis `axis`, as drawn (at the ground, below the body).
 Eigen::Vector3d world_axis_tip(const SceneState& state, int axis);
-/// World position of the world triad's origin.
+/// World position of the world triad's origin (on the ground, in front and to the left).
 Eigen::Vector3d world_triad_origin(const SceneState& state);
+/// The point of the ground right below the body, and the ground's two in-plane directions
+/// (world +x projected on the ground, and up x that).
+Eigen::Vector3d ground_centre(const SceneState& state);
+void ground_axes(const WorldFrame& world, Eigen::Vector3d* e1, Eigen::Vector3d* e2);
 
 /// The mesh-to-world matrix of the body: world_R_body * body_R_model for one of our models
 /// (placed by state.body), world_R_body alone for a user mesh (written in body coordinates).

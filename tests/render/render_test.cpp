@@ -1,0 +1,191 @@
+// render_test.cpp: headless pictures of the scene. Each check is about what the picture
+// shows (pixel positions from the renderer's own projection, colours at those pixels),
+// never a golden image.
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <memory>
+
+#include "attiscope/core/euler.hpp"
+#include "attiscope/render/headless.hpp"
+#include "attiscope/render/scene_renderer.hpp"
+#include "support/check.hpp"
+
+namespace attiscope::render {
+namespace {
+
+constexpr double kDeg = 3.14159265358979323846 / 180.0;
+
+/// One headless context and renderer for the whole suite (creating them costs ~40 ms).
+class RenderTest : public ::testing::Test {
+ protected:
+  static void SetUpTestSuite() {
+    auto ctx = HeadlessContext::create();
+    ASSERT_TRUE(ctx.ok()) << ctx.error().describe();
+    context_ = ctx.value();
+    auto r = SceneRenderer::create();
+    ASSERT_TRUE(r.ok()) << r.error().describe();
+    renderer_ = std::move(r.value()).release();
+  }
+  static void TearDownTestSuite() {
+    delete renderer_;
+    renderer_ = nullptr;
+    context_.reset();
+  }
+  static std::shared_ptr<HeadlessContext> context_;
+  static SceneRenderer* renderer_;
+};
+std::shared_ptr<HeadlessContext> RenderTest::context_;
+SceneRenderer* RenderTest::renderer_ = nullptr;
+
+/// Mean colour (0..1) of the 3x3 pixels around a pixel position.
+Eigen::Vector3d mean_color(const Image& img, const Eigen::Vector2d& at) {
+  Eigen::Vector3d sum = Eigen::Vector3d::Zero();
+  const int cx = static_cast<int>(std::floor(at.x())), cy = static_cast<int>(std::floor(at.y()));
+  for (int dy = -1; dy <= 1; ++dy) {
+    for (int dx = -1; dx <= 1; ++dx) {
+      const std::uint8_t* p =
+          img.pixel(std::clamp(cx + dx, 0, img.width - 1), std::clamp(cy + dy, 0, img.height - 1));
+      sum += Eigen::Vector3d(p[0], p[1], p[2]) / 255.0;
+    }
+  }
+  return sum / 9.0;
+}
+
+/// Red clearly above green and blue (the x axis colour), and so on.
+bool dominated_by(const Eigen::Vector3d& c, int channel) {
+  constexpr double kMargin = 0.2;
+  for (int k = 0; k < 3; ++k) {
+    if (k != channel && c[channel] < c[k] + kMargin) return false;
+  }
+  return true;
+}
+
+TEST_F(RenderTest, ContextIsOpenGlThreeThreeCore) {
+  EXPECT_FALSE(context_->renderer_name().empty());
+  SceneState s;
+  s.width_px = 64;
+  s.height_px = 48;
+  const Image img = renderer_->render_image(s);
+  ASSERT_EQ(img.width, 64);
+  ASSERT_EQ(img.height, 48);
+  EXPECT_EQ(img.rgba.size(), 64u * 48u * 4u);
+}
+
+TEST_F(RenderTest, IdentityAndQuarterTurnDiffer) {
+  SceneState s;
+  s.width_px = 320;
+  s.height_px = 240;
+  const Image a = renderer_->render_image(s);
+  s.world_R_body = elementary_rotation(Axis::Z, 90.0 * kDeg);
+  const Image b = renderer_->render_image(s);
+  std::size_t differing = 0;
+  for (std::size_t i = 0; i < a.rgba.size(); i += 4) {
+    const int d = std::abs(a.rgba[i] - b.rgba[i]) + std::abs(a.rgba[i + 1] - b.rgba[i + 1]) +
+                  std::abs(a.rgba[i + 2] - b.rgba[i + 2]);
+    if (d > 30) ++differing;
+  }
+  // The box turns a quarter turn: a large part of its picture changes colour.
+  EXPECT_GT(differing, a.rgba.size() / 4 / 50) << "only " << differing << " pixels differ";
+  // And the same pose twice gives the same picture (the renderer keeps no hidden state).
+  const Image c = renderer_->render_image(s);
+  EXPECT_EQ(b.rgba, c.rgba);
+}
+
+// A 90-degree turn about world z takes the body x axis onto the world y axis (R_z(90) e_x =
+// e_y, the active rotation of design.md), so its tip must be drawn where the identity pose
+// drew the y tip, and in x red where that picture had y green.
+TEST_F(RenderTest, QuarterTurnAboutWorldZMovesXTipToYTip) {
+  // Views in which no part of the box can hide the tips (it reaches 0.78 from its centre).
+  for (ViewPreset view : {ViewPreset::Top, ViewPreset::Front, ViewPreset::Bottom}) {
+    SceneState s;
+    s.width_px = 640;
+    s.height_px = 480;
+    s.camera = Camera::preset(view);
+    s.show_labels = false;
+    const Image identity = renderer_->render_image(s);
+    // A point inside the arrowhead, just behind the tip.
+    const Eigen::Vector3d y_point = body_axis_tip(s, 1) * 0.9;
+    const Projected y_at = project_to_pixel(s.camera, s.world, s.width_px, s.height_px, y_point);
+    ASSERT_TRUE(y_at.in_front);
+
+    SceneState t = s;
+    t.world_R_body = elementary_rotation(Axis::Z, 90.0 * kDeg);
+    const Image turned = renderer_->render_image(t);
+    const Eigen::Vector3d x_point = body_axis_tip(t, 0) * 0.9;
+    const Projected x_at = project_to_pixel(t.camera, t.world, t.width_px, t.height_px, x_point);
+    ASSERT_TRUE(x_at.in_front);
+    EXPECT_LT((x_at.pixel - y_at.pixel).norm(), 1e-6) << view_preset_name(view);
+
+    const Eigen::Vector3d before = mean_color(identity, y_at.pixel);
+    const Eigen::Vector3d after = mean_color(turned, x_at.pixel);
+    EXPECT_TRUE(dominated_by(before, 1))
+        << view_preset_name(view) << ": identity pose, y tip colour " << before.transpose();
+    EXPECT_TRUE(dominated_by(after, 0))
+        << view_preset_name(view) << ": turned pose, x tip colour " << after.transpose();
+  }
+}
+
+// The top view of an ENU world looks down world z with +x up the screen (camera.hpp), so
+// the body's z axis points at the viewer and its tip lands on the body's centre pixel.
+TEST_F(RenderTest, TopViewShowsBodyZTowardViewer) {
+  SceneState s;
+  s.width_px = 320;
+  s.height_px = 240;
+  s.camera = Camera::preset(ViewPreset::Top);
+  const Projected centre = project_to_pixel(s.camera, s.world, 320, 240, Eigen::Vector3d::Zero());
+  const Projected z_tip = project_to_pixel(s.camera, s.world, 320, 240, body_axis_tip(s, 2));
+  EXPECT_LT((centre.pixel - z_tip.pixel).norm(), 1e-6);
+  const Projected x_tip = project_to_pixel(s.camera, s.world, 320, 240, body_axis_tip(s, 0));
+  EXPECT_LT(x_tip.pixel.y(), centre.pixel.y() - 20.0);
+}
+
+TEST_F(RenderTest, GhostAndRingsChangeThePicture) {
+  SceneState s;
+  s.width_px = 320;
+  s.height_px = 240;
+  s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(20, 30, 10) * kDeg);
+  const Image plain = renderer_->render_image(s);
+  SceneState g = s;
+  g.ghost_world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(60, 0, 0) * kDeg);
+  EXPECT_NE(renderer_->render_image(g).rgba, plain.rgba);
+  SceneState r = s;
+  r.rings = to_euler(s.world_R_body, EulerConvention{});
+  EXPECT_NE(renderer_->render_image(r).rgba, plain.rgba);
+}
+
+TEST_F(RenderTest, EveryModelRendersAndCanBePicked) {
+  for (const ModelInfo& info : model_infos()) {
+    SceneState s;
+    s.width_px = 320;
+    s.height_px = 240;
+    s.model.kind = info.kind;
+    const Image img = renderer_->render_image(s);
+    EXPECT_EQ(img.width, 320) << info.name;
+    const Mesh& mesh = renderer_->mesh(s.model);
+    EXPECT_GT(mesh.triangle_count(), 20u) << info.name;
+    EXPECT_LT(mesh.triangle_count(), 6000u) << info.name << ": keep the models lean";
+    // The centre of the view is on the body; a corner is not.
+    const Projected c = project_to_pixel(s.camera, s.world, 320, 240, Eigen::Vector3d::Zero());
+    EXPECT_TRUE(pick_body(s, mesh, c.pixel).has_value()) << info.name;
+    EXPECT_FALSE(pick_body(s, mesh, Eigen::Vector2d(2, 2)).has_value()) << info.name;
+  }
+}
+
+TEST_F(RenderTest, PngRoundTrip) {
+  SceneState s;
+  s.width_px = 96;
+  s.height_px = 64;
+  const Image img = renderer_->render_image(s);
+  const std::string path = ::testing::TempDir() + "render_test_roundtrip.png";
+  ASSERT_TRUE(write_png(path, img).ok());
+  auto back = read_png(path);
+  ASSERT_TRUE(back.ok()) << back.error().describe();
+  EXPECT_EQ(back.value().width, 96);
+  EXPECT_EQ(back.value().height, 64);
+  EXPECT_EQ(back.value().rgba, img.rgba);  // opaque picture: alpha 255 both ways
+  EXPECT_FALSE(write_png(::testing::TempDir() + "no-such-folder/x.png", img).ok());
+}
+
+}  // namespace
+}  // namespace attiscope::render
