@@ -37,9 +37,9 @@ Expected<bool> write_png(const std::string& path, const Image& image) {
   }
   png_init_io(png, f.get());
   png_set_compression_level(png, kPngCompressionLevel);
-  // The "up" filter alone: most of the gain of adaptive filtering on flat-shaded pictures,
-  // at a fraction of its cost.
-  png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_UP);
+  // No row filter: on these flat-shaded pictures it gives the smallest files at level 1 and
+  // the fastest encode (measured against up, sub and adaptive filtering).
+  png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_NONE);
   png_set_IHDR(png, info, static_cast<png_uint_32>(image.width), static_cast<png_uint_32>(image.height), 8,
                PNG_COLOR_TYPE_RGB, PNG_INTERLACE_NONE, PNG_COMPRESSION_TYPE_DEFAULT, PNG_FILTER_TYPE_DEFAULT);
   png_write_info(png, info);

@@ -42,8 +42,8 @@ const std::array<ModelInfo, 6> kModels{{
 }};
 
 // Palette of the models (linear RGB).
-const Color kGraphite = rgb(0.20f, 0.21f, 0.24f);
-const Color kCharcoal = rgb(0.12f, 0.12f, 0.14f);
+const Color kGraphite = rgb(0.36f, 0.38f, 0.43f);
+const Color kCharcoal = rgb(0.17f, 0.17f, 0.19f);
 const Color kShell = rgb(0.90f, 0.90f, 0.88f);
 const Color kLightGrey = rgb(0.74f, 0.76f, 0.79f);
 const Color kOrange = rgb(0.96f, 0.50f, 0.12f);

@@ -25,7 +25,7 @@ constexpr float kFontBakePx = 44.0f;
 constexpr float kLabelPerViewHeight = 1.0f / 21.0f;
 constexpr float kLabelMinPx = 16.0f, kLabelMaxPx = 44.0f;
 /// Half-size of the ground grid, in scene units.
-constexpr float kGridExtent = 7.0f;
+constexpr float kGridExtent = 6.0f;
 /// Ring tube radius, segments around the ring and around the tube.
 constexpr double kRingTube = 0.034;
 constexpr int kRingSegments = 72, kRingSides = 8;
@@ -127,6 +127,76 @@ Eigen::Matrix3d frame_along(const Eigen::Vector3d& dir) {
   return m;
 }
 
+/// One end of a grid segment strip (see kGridVertex).
+struct GridVertex {
+  float u, v, ou, ov;
+  float side, half_width, alpha;
+  float kind;
+};
+
+/// The ground grid: minor lines every kGridMinor, major every kGridMajor, and the world x and
+/// y axes through the world triad's foot (kWorldTriadOffset along both ground axes), each
+/// cut into short segments so the fade and the near-plane clip stay smooth.
+GpuMesh build_grid() {
+  constexpr double kGridMinor = 0.5, kGridMajor = 1.0, kSegment = 3.0;
+  constexpr float kMinorHalf = 0.5f, kMajorHalf = 0.7f, kAxisHalf = 1.2f;
+  constexpr float kMinorAlpha = 0.22f, kMajorAlpha = 0.45f, kAxisAlpha = 0.85f;
+  std::vector<GridVertex> v;
+  auto segment = [&](Eigen::Vector2d a, Eigen::Vector2d b, float half, float alpha, float kind) {
+    const GridVertex a0{float(a.x()), float(a.y()), float(b.x()), float(b.y()), -1.0f, half, alpha, kind};
+    const GridVertex a1{float(a.x()), float(a.y()), float(b.x()), float(b.y()), 1.0f, half, alpha, kind};
+    // The far end's offset uses the same direction, so its "other" is the near end and its
+    // side flips to stay on the same side of the line.
+    const GridVertex b0{float(b.x()), float(b.y()), float(a.x()), float(a.y()), 1.0f, half, alpha, kind};
+    const GridVertex b1{float(b.x()), float(b.y()), float(a.x()), float(a.y()), -1.0f, half, alpha, kind};
+    v.insert(v.end(), {a0, a1, b1, a0, b1, b0});
+  };
+  auto line = [&](Eigen::Vector2d from, Eigen::Vector2d to, float half, float alpha, float kind) {
+    const int n = std::max(1, static_cast<int>(std::ceil((to - from).norm() / kSegment)));
+    for (int i = 0; i < n; ++i) {
+      segment(from + (to - from) * (double(i) / n), from + (to - from) * (double(i + 1) / n), half, alpha,
+              kind);
+    }
+  };
+  const double e = kGridExtent;
+  const int steps = static_cast<int>(std::lround(e / kGridMinor));
+  const double foot = kWorldTriadOffset;
+  for (int i = -steps; i <= steps; ++i) {
+    const double c = i * kGridMinor;
+    const bool major = std::abs(std::remainder(c, kGridMajor)) < 1e-9;
+    const float half = major ? kMajorHalf : kMinorHalf, alpha = major ? kMajorAlpha : kMinorAlpha;
+    line({c, -e}, {c, e}, half, alpha, 0.0f);
+    line({-e, c}, {e, c}, half, alpha, 0.0f);
+  }
+  line({foot, foot}, {e, foot}, kAxisHalf, kAxisAlpha, 1.0f);
+  line({foot, foot}, {foot, e}, kAxisHalf, kAxisAlpha, 2.0f);
+  GpuMesh g;
+  g.vao = gl::make_vertex_array();
+  g.vbo = gl::make_buffer();
+  glBindVertexArray(g.vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, g.vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(v.size() * sizeof(GridVertex)), v.data(),
+               GL_STATIC_DRAW);
+  const GLsizei stride = sizeof(GridVertex);
+  glEnableVertexAttribArray(0);
+  glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, stride,
+                        reinterpret_cast<const void*>(offsetof(GridVertex, u)));
+  glEnableVertexAttribArray(1);
+  glVertexAttribPointer(1, 2, GL_FLOAT, GL_FALSE, stride,
+                        reinterpret_cast<const void*>(offsetof(GridVertex, ou)));
+  glEnableVertexAttribArray(2);
+  glVertexAttribPointer(2, 3, GL_FLOAT, GL_FALSE, stride,
+                        reinterpret_cast<const void*>(offsetof(GridVertex, side)));
+  glEnableVertexAttribArray(3);
+  glVertexAttribPointer(3, 1, GL_FLOAT, GL_FALSE, stride,
+                        reinterpret_cast<const void*>(offsetof(GridVertex, kind)));
+  glBindVertexArray(0);
+  g.count = static_cast<GLsizei>(v.size());
+  g.triangles = v.size() / 3;
+  gl::check("grid upload");
+  return g;
+}
+
 /// A pixel rectangle, top-left origin.
 struct PixelBox {
   int x, y, width, height;
@@ -202,7 +272,7 @@ struct SceneRenderer::State {
   std::vector<std::string> warnings;
   std::size_t triangles = 0;
 
-  gl::Program mesh_program, background_program, grid_program, post_program, text_program;
+  gl::Program mesh_program, grid_program, post_program, text_program;
   MeshUniforms mu{};
   gl::VertexArray empty_vao;
   GpuMesh grid, arrow, rod;
@@ -352,8 +422,6 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   s.options = options;
   auto mesh_p = gl::make_program("mesh", detail::kMeshVertex, detail::kMeshFragment);
   if (!mesh_p) return mesh_p.error();
-  auto bg_p = gl::make_program("background", detail::kFullscreenVertex, detail::kBackgroundFragment);
-  if (!bg_p) return bg_p.error();
   auto grid_p = gl::make_program("grid", detail::kGridVertex, detail::kGridFragment);
   if (!grid_p) return grid_p.error();
   auto post_p = gl::make_program("post", detail::kFullscreenVertex, detail::kPostFragment);
@@ -361,7 +429,6 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   auto text_p = gl::make_program("text", detail::kTextVertex, detail::kTextFragment);
   if (!text_p) return text_p.error();
   s.mesh_program = std::move(mesh_p.value());
-  s.background_program = std::move(bg_p.value());
   s.grid_program = std::move(grid_p.value());
   s.post_program = std::move(post_p.value());
   s.text_program = std::move(text_p.value());
@@ -396,19 +463,7 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
     }
     s.rings[i] = upload(ring);
   }
-  // The grid quad.
-  const float e = kGridExtent;
-  const float quad[] = {-e, -e, e, -e, e, e, -e, -e, e, e, -e, e};
-  s.grid.vao = gl::make_vertex_array();
-  s.grid.vbo = gl::make_buffer();
-  glBindVertexArray(s.grid.vao.get());
-  glBindBuffer(GL_ARRAY_BUFFER, s.grid.vbo.get());
-  glBufferData(GL_ARRAY_BUFFER, sizeof quad, quad, GL_STATIC_DRAW);
-  glEnableVertexAttribArray(0);
-  glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, 2 * sizeof(float), nullptr);
-  glBindVertexArray(0);
-  s.grid.count = 6;
-  s.grid.triangles = 2;
+  s.grid = build_grid();
   gl::check("renderer creation");
   return r;
 }
@@ -422,18 +477,14 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   view_proj = to_gl(projection_matrix(st.camera, w, h) * view_matrix(st.camera, world));
   const Eigen::Vector3d up = world.up.normalized();
 
-  // Background gradient (no depth).
+  // Background: a plain clear (a software rasteriser clears tiles far faster than it
+  // shades a full-screen gradient).
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_BLEND);
   glDepthMask(GL_TRUE);
   glClearDepth(1.0);
-  glClear(GL_DEPTH_BUFFER_BIT);
-  glUseProgram(background_program.get());
-  glUniform3fv(glGetUniformLocation(background_program.get(), "u_top"), 1, palette.background_top.data());
-  glUniform3fv(glGetUniformLocation(background_program.get(), "u_bottom"), 1,
-               palette.background_bottom.data());
-  glBindVertexArray(empty_vao.get());
-  glDrawArrays(GL_TRIANGLES, 0, 3);
+  glClearColor(palette.background[0], palette.background[1], palette.background[2], 1.0f);
+  glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT);
 
   const Eigen::Vector3d ground = world_triad_origin(st);
   glEnable(GL_DEPTH_TEST);
@@ -510,23 +561,21 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     glUseProgram(gp);
     Eigen::Vector3d e1, e2;
     ground_axes(world, &e1, &e2);
-    const Eigen::Vector3d centre = ground_centre(st);
-    // The grid's coloured axis lines run through the world triad's foot.
-    const Eigen::Vector3d foot = ground - centre;
-    const Eigen::Vector2f axis_origin(static_cast<float>(foot.dot(e1)), static_cast<float>(foot.dot(e2)));
-    const Eigen::Vector3f o = centre.cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
-    glUniform2fv(glGetUniformLocation(gp, "u_axis_origin"), 1, axis_origin.data());
+    const Eigen::Vector3f o = ground_centre(st).cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
     glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
     glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
     glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
     glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
+    glUniform2f(glGetUniformLocation(gp, "u_viewport"), static_cast<float>(w), static_cast<float>(h));
     glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
     glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
     glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
     glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
+    glUniform1f(glGetUniformLocation(gp, "u_foot"), static_cast<float>(kWorldTriadOffset));
+    glUniform1f(glGetUniformLocation(gp, "u_y_flip"), e2.y() < 0.0 ? 1.0f : 0.0f);
     glBindVertexArray(grid.vao.get());
-    glDrawArrays(GL_TRIANGLES, 0, 6);
-    triangles += 2;
+    glDrawArrays(GL_TRIANGLES, 0, grid.count);
+    triangles += grid.triangles;
     glDepthMask(GL_TRUE);
     glDisable(GL_BLEND);
   }

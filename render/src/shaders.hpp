@@ -64,58 +64,65 @@ void main() {
 }
 )";
 
-inline const char* kBackgroundFragment = R"(#version 330 core
-in vec2 v_uv;
-uniform vec3 u_top;
-uniform vec3 u_bottom;
-out vec4 o_color;
-void main() { o_color = vec4(mix(u_bottom, u_top, clamp(v_uv.y, 0.0, 1.0)), 1.0); }
-)";
-
-// The ground grid: one quad; lines drawn analytically with screen-space derivatives, so
-// they are antialiased at every distance, fading out toward the edge.
+// The ground grid: line segments in ground coordinates, each drawn as a thin screen-space
+// strip (expanded in the vertex shader) whose edge falloff antialiases it analytically.
+// Only the pixels of the lines are shaded, which is what a software rasteriser needs.
 inline const char* kGridVertex = R"(#version 330 core
-layout(location = 0) in vec2 a_uv;
+layout(location = 0) in vec2 a_uv;        // this end, ground coordinates
+layout(location = 1) in vec2 a_other;     // the other end
+layout(location = 2) in vec3 a_style;     // side (-1 or 1), half width in pixels, alpha
+layout(location = 3) in float a_kind;     // 0 grid, 1 world x axis, 2 world y axis
 uniform vec3 u_origin;
 uniform vec3 u_e1;
 uniform vec3 u_e2;
 uniform mat4 u_view_proj;
-out vec2 v_uv;
+uniform vec2 u_viewport;
+uniform float u_extent;
+uniform vec3 u_color;
+uniform vec3 u_x_color;
+uniform vec3 u_y_color;
+uniform float u_foot;     // the world triad's foot, at (u_foot, u_foot)
+uniform float u_y_flip;   // 1 when world +y runs along -e2 (NED): mirror the y axis line
+out float v_dist;     // signed distance from the line's centre, pixels
+out float v_half;
+out vec4 v_color;
+const float kNearW = 0.05;
 void main() {
-  v_uv = a_uv;
-  gl_Position = u_view_proj * vec4(u_origin + a_uv.x * u_e1 + a_uv.y * u_e2, 1.0);
+  vec2 uv = a_uv, other = a_other;
+  if (a_kind > 1.5 && u_y_flip > 0.5) {
+    uv.y = 2.0 * u_foot - uv.y;
+    other.y = 2.0 * u_foot - other.y;
+  }
+  vec4 c0 = u_view_proj * vec4(u_origin + uv.x * u_e1 + uv.y * u_e2, 1.0);
+  vec4 c1 = u_view_proj * vec4(u_origin + other.x * u_e1 + other.y * u_e2, 1.0);
+  // Clip the segment against a plane just in front of the eye.
+  if (c0.w < kNearW && c1.w >= kNearW) c0 = mix(c0, c1, (kNearW - c0.w) / (c1.w - c0.w));
+  if (c1.w < kNearW && c0.w >= kNearW) c1 = mix(c1, c0, (kNearW - c1.w) / (c0.w - c1.w));
+  vec2 s0 = c0.xy / max(c0.w, kNearW) * 0.5 * u_viewport;
+  vec2 s1 = c1.xy / max(c1.w, kNearW) * 0.5 * u_viewport;
+  vec2 d = s1 - s0;
+  d = length(d) > 1e-6 ? normalize(d) : vec2(1.0, 0.0);
+  float half_w = a_style.y;
+  float reach = half_w + 1.0;  // one more pixel for the falloff
+  vec2 offset = vec2(-d.y, d.x) * a_style.x * reach;
+  gl_Position = c0 + vec4(offset / (0.5 * u_viewport) * c0.w, 0.0, 0.0);
+  if (c0.w < kNearW) gl_Position = vec4(2.0, 2.0, 2.0, 1.0);  // both ends behind the eye
+  v_dist = a_style.x * reach;
+  v_half = half_w;
+  float fade = 1.0 - smoothstep(0.45 * u_extent, u_extent, length(uv));
+  vec3 col = a_kind < 0.5 ? u_color : (a_kind < 1.5 ? u_x_color : u_y_color);
+  v_color = vec4(col, a_style.z * fade);
 }
 )";
 
 inline const char* kGridFragment = R"(#version 330 core
-in vec2 v_uv;
-uniform vec3 u_color;
-uniform vec3 u_x_color;
-uniform vec3 u_y_color;
-uniform float u_extent;
-uniform vec2 u_axis_origin;
+in float v_dist;
+in float v_half;
+in vec4 v_color;
 out vec4 o_color;
-float grid_line(vec2 c, float spacing, float width_px) {
-  vec2 d = abs(fract(c / spacing - 0.5) - 0.5) * spacing / max(fwidth(c), vec2(1e-6));
-  float l = min(d.x, d.y);
-  return 1.0 - smoothstep(0.5 * width_px - 0.5, 0.5 * width_px + 0.5, l);
-}
-float axis_line(float c, float width_px) {
-  float d = abs(c) / max(fwidth(c), 1e-6);
-  return 1.0 - smoothstep(0.5 * width_px - 0.5, 0.5 * width_px + 0.5, d);
-}
 void main() {
-  float minor = grid_line(v_uv, 0.25, 1.0) * 0.16;
-  float major = grid_line(v_uv, 1.0, 1.3) * 0.45;
-  float a = max(minor, major);
-  vec3 c = u_color;
-  vec2 q = v_uv - u_axis_origin;
-  float ax = axis_line(q.y, 2.2);  // the world x axis: where the second coordinate is 0
-  float ay = axis_line(q.x, 2.2);
-  if (q.x > 0.0 && ax > 0.0) { c = mix(c, u_x_color, ax); a = max(a, 0.75 * ax); }
-  if (q.y > 0.0 && ay > 0.0) { c = mix(c, u_y_color, ay); a = max(a, 0.75 * ay); }
-  float fade = 1.0 - smoothstep(0.45 * u_extent, u_extent, length(v_uv));
-  o_color = vec4(c, a * fade);
+  float coverage = clamp(v_half + 0.5 - abs(v_dist), 0.0, 1.0);
+  o_color = vec4(v_color.rgb, v_color.a * coverage);
 }
 )";
 

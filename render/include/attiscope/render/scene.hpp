@@ -44,13 +44,13 @@ struct SceneState {
 
 /// World-space length of the body triad's axes and of the world triad's.
 inline constexpr double kBodyTriadLength = 1.55;
-inline constexpr double kWorldTriadLength = 1.0;
+inline constexpr double kWorldTriadLength = 0.9;
 /// How far below the body (along world down) the ground grid sits, without and with rings.
 inline constexpr double kGroundDepth = 1.35;
 inline constexpr double kGroundDepthRings = 2.6;
 /// Where the world triad stands on the ground: this far along the world's +x axis and
 /// along its left (up x +x), so the body does not hide it in the usual views.
-inline constexpr double kWorldTriadOffset = 1.5;
+inline constexpr double kWorldTriadOffset = 1.1;
 /// Radii of the outer, middle and inner gimbal rings (the body fits inside radius 1).
 inline constexpr double kRingRadius[3] = {2.05, 1.78, 1.51};
 

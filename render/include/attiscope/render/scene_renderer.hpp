@@ -41,10 +41,9 @@ struct RendererOptions {
   Antialiasing antialiasing = Antialiasing::Post;
 };
 
-/// Linear RGB palette of the scene (deliberately ours; readable on a projector).
+/// RGB palette of the scene (deliberately ours; readable on a projector).
 struct Palette {
-  std::array<float, 3> background_top{0.955f, 0.958f, 0.965f};
-  std::array<float, 3> background_bottom{0.855f, 0.868f, 0.885f};
+  std::array<float, 3> background{0.925f, 0.930f, 0.940f};
   std::array<float, 3> grid{0.50f, 0.54f, 0.60f};
   std::array<float, 3> axis_x{0.86f, 0.16f, 0.13f};
   std::array<float, 3> axis_y{0.16f, 0.62f, 0.22f};
