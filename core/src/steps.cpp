@@ -11,9 +11,13 @@ namespace {
 constexpr double kPi = 3.14159265358979323846;
 /// A turn's effect is said in body words when its direction is this close to a body axis.
 constexpr double kAlignedTolerance = 1e-9;
+/// Turns smaller than this (radians) are "no turn": the rounding left by extracting the
+/// angles of a pose built with an exact zero.
+constexpr double kNegligibleTurnRad = 1e-12;
 
 std::string angle_text(double angle_rad, const HouseConvention& c) {
   const bool deg = c.euler.unit == AngleUnit::Degrees;
+  if (std::abs(angle_rad) < kNegligibleTurnRad) angle_rad = 0.0;
   const double v = deg ? angle_rad * 180.0 / kPi : angle_rad;
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*g", c.precision, std::abs(v));
@@ -26,7 +30,7 @@ std::string angle_text(double angle_rad, const HouseConvention& c) {
 // axis ("the nose rises"), else in world words ("the nose moves mostly north").
 std::string effect(const EulerStep& s, const HouseConvention& c, const Eigen::Matrix3d& flu_R_body,
                    const Eigen::Matrix3d& enu_R_world, const std::string& angle_printed) {
-  if (angle_printed.rfind("+0 ", 0) == 0) return "no turn";
+  if (std::abs(s.angle_rad) < kNegligibleTurnRad || angle_printed.rfind("+0 ", 0) == 0) return "no turn";
   const Eigen::Vector3d forward(1, 0, 0), right(0, -1, 0);
   const Eigen::Vector3d axis_flu = flu_R_body * s.axis_body;
   const bool about_front = axis_flu.cross(forward).norm() < kAlignedTolerance;
