@@ -35,11 +35,13 @@ const char* kFindHelp =
     "otherwise; --accel-points down for a sensor that reports gravity itself).\n"
     "\n"
     "  --within DEG   list interpretations with a residual up to DEG (default 0.5)\n"
+    "  --convention FILE  among tied interpretations, the house's own comes first\n"
     "\n"
     "Exit codes: 0 at least one interpretation agrees, 1 none does, 2 bad input.\n"
     "\n"
     "Examples:\n"
-    "  attiscope find \"10 20 30\" \"0.9515 0.0381 0.1893 0.2393\"\n"
+    "  attiscope find \"10 20 30\" \"0.2393 0.1893 0.0381 0.9515\"\n"
+    "  attiscope find --gravity assets/logs/resting-imu-demo.txt\n"
     "  attiscope find --json \"0 0 0.7071 0.7071  0.7071 0 0 0.7071\" \"0.5 0.5 0.5 0.5\"\n"
     "\n";
 
@@ -115,7 +117,7 @@ int run_gravity(const CommonOptions& o, Streams io) {
     return kExitBadInput;
   }
   const Eigen::Vector3d expected = points == "up" ? up_world : Eigen::Vector3d(-up_world);
-  auto result = gravity_test(samples.value(), expected);
+  auto result = gravity_test(samples.value(), expected, o.convention);
   if (!result) {
     io.err << "attiscope find: " << path << ": " << result.error().describe() << "\n";
     return kExitBadInput;
@@ -177,6 +179,7 @@ int run_find(const std::vector<std::string>& args, Streams io) {
     return kExitBadInput;
   }
   FinderOptions fo;
+  fo.house = o.convention;  // the house breaks ties
   if (auto w = o.last("--within")) {
     char* end = nullptr;
     const double deg = std::strtod(w->c_str(), &end);

@@ -61,10 +61,30 @@ double quaternion_numbers_angle(const Eigen::Vector4d& p, const Eigen::Vector4d&
   return 2.0 * std::atan2((pn - bn).norm(), (pn + bn).norm());
 }
 
+// Within each run of tied entries (residuals within kFinderTieRad of the run's first),
+// the ones that agree more with the house come first.
+template <class T, class Key>
+void order_ties(std::vector<T>* v, Key key, const std::optional<HouseConvention>& house) {
+  if (!house) return;
+  std::size_t start = 0;
+  while (start < v->size()) {
+    std::size_t end = start + 1;
+    while (end < v->size() && key((*v)[end]) - key((*v)[start]) < kFinderTieRad) ++end;
+    std::stable_sort(v->begin() + static_cast<std::ptrdiff_t>(start),
+                     v->begin() + static_cast<std::ptrdiff_t>(end), [&](const T& a, const T& b) {
+                       return house_agreement(a.interpretation, *house) >
+                              house_agreement(b.interpretation, *house);
+                     });
+    start = end;
+  }
+}
+
 void sort_and_cut(std::vector<FinderMatch>* all, const FinderOptions& o, FinderResult* r) {
   std::stable_sort(all->begin(), all->end(), [](const FinderMatch& x, const FinderMatch& y) {
     return x.residual_rad < y.residual_rad;
   });
+  order_ties(
+      all, [](const FinderMatch& m) { return m.residual_rad; }, o.house);
   for (const FinderMatch& m : *all) {
     if (m.residual_rad <= o.within_rad) r->matches.push_back(m);
   }
@@ -122,6 +142,23 @@ Interpretation merge(const Interpretation& x, const Interpretation& y) {
 }
 
 }  // namespace
+
+int house_agreement(const Interpretation& i, const HouseConvention& h) {
+  int n = 0;
+  if (i.euler && *i.euler == h.euler.convention) ++n;
+  if (i.unit && *i.unit == h.euler.unit) ++n;
+  if (i.print_order && *i.print_order == h.euler.print_order) ++n;
+  if (i.quaternion) {
+    n += i.quaternion->layout == h.quaternion.layout;
+    n += i.quaternion->algebra == h.quaternion.algebra;
+    n += !i.product_only && i.quaternion->direction == h.quaternion.direction;
+  }
+  if (i.matrix) {
+    n += i.matrix->direction == h.matrix.direction;
+    n += i.matrix->storage == h.matrix.storage;
+  }
+  return n;
+}
 
 std::string quaternion_layout_key(QuatLayout l) {
   return l == QuatLayout::ScalarFirst ? "wxyz" : "xyzw";
@@ -291,7 +328,8 @@ Expected<std::vector<GravitySample>> parse_gravity_log(std::string_view text) {
 }
 
 Expected<GravityResult> gravity_test(const std::vector<GravitySample>& samples,
-                                     const Eigen::Vector3d& expected_world) {
+                                     const Eigen::Vector3d& expected_world,
+                                     const std::optional<HouseConvention>& house) {
   if (samples.size() < 2) return Error{"the gravity test needs at least two resting samples"};
   const std::size_t count = samples.front().pose.size();
   for (const GravitySample& s : samples) {
@@ -336,6 +374,15 @@ Expected<GravityResult> gravity_test(const std::vector<GravitySample>& samples,
   if (result.ranked.empty()) return Error{"no reading of the logged poses gives a rotation"};
   std::stable_sort(result.ranked.begin(), result.ranked.end(),
                    [](const GravityMatch& x, const GravityMatch& y) { return x.worst_deg < y.worst_deg; });
+  // worst_deg is in degrees: ties are compared at the same small tolerance in radians.
+  order_ties(
+      &result.ranked, [](const GravityMatch& m) { return m.worst_deg / kDegPerRad; }, house);
+  if (result.ranked.size() > 1 &&
+      (result.ranked[1].worst_deg - result.ranked[0].worst_deg) / kDegPerRad < kFinderTieRad) {
+    result.notes.push_back(
+        "the best readings tie: they give the same rotations for these numbers (a JPL "
+        "body-to-world quaternion has the numbers of a Hamilton world-to-body one)");
+  }
   // The test only tells readings apart when the body was turned between samples.
   double pose_spread = 0.0;
   const auto& first = per_sample.front();

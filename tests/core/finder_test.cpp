@@ -224,7 +224,36 @@ TEST(FinderTest, GravityTestRecoversSwappedQuaternionLayout) {
       EXPECT_GT(m.worst_deg, 20.0);
     }
   }
-  EXPECT_TRUE(r.value().notes.empty());
+  for (const std::string& note : r.value().notes)
+    EXPECT_EQ(note.find("less than 5 degrees"), std::string::npos);
+  // With a house convention that writes Hamilton body-to-world, its reading leads the tie.
+  HouseConvention house;
+  house.quaternion = {QuatLayout::ScalarLast, QuatAlgebra::Hamilton, Direction::BodyToWorld};
+  auto h = gravity_test(samples, up, house);
+  ASSERT_TRUE(h.ok());
+  EXPECT_EQ(*h.value().ranked.front().interpretation.quaternion, house.quaternion);
+}
+
+TEST(FinderTest, HouseConventionBreaksTies) {
+  // Intrinsic ZYX written (a, b, c) and extrinsic XYZ written (c, b, a) are the same
+  // numbers; so are Hamilton body-to-world and JPL world-to-body quaternions. The house
+  // (intrinsic ZYX, printed as applied, JPL world-to-body, x y z w) picks its own.
+  HouseConvention house;
+  house.quaternion = {QuatLayout::ScalarLast, QuatAlgebra::Jpl, Direction::WorldToBody};
+  const Rotation pose = from_euler(house.euler.convention, Eigen::Vector3d(40, -25, 70) * kDeg);
+  FinderOptions o;
+  o.house = house;
+  auto r = find_conventions({40, -25, 70}, vec(to_quaternion_numbers(pose, house.quaternion)), o);
+  ASSERT_TRUE(r.ok());
+  ASSERT_GE(r.value().matches.size(), 4u);
+  const Interpretation& top = r.value().matches.front().interpretation;
+  EXPECT_EQ(*top.euler, house.euler.convention);
+  EXPECT_EQ(*top.quaternion, house.quaternion);
+  EXPECT_EQ(*top.print_order, (std::array<int, 3>{0, 1, 2}));
+  // Without the house the tie is still reported.
+  auto plain = find_conventions({40, -25, 70}, vec(to_quaternion_numbers(pose, house.quaternion)));
+  ASSERT_TRUE(plain.ok());
+  EXPECT_FALSE(plain.value().notes.empty());
 }
 
 TEST(FinderTest, GravityLogParsingAndErrors) {

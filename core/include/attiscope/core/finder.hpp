@@ -17,6 +17,7 @@
 #include <string>
 #include <vector>
 
+#include "attiscope/core/convention.hpp"
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/expected.hpp"
 #include "attiscope/core/matrix.hpp"
@@ -54,7 +55,15 @@ inline constexpr double kFinderTieRad = 1e-9;
 
 struct FinderOptions {
   double within_rad = kFinderDefaultWithinRad;
+  /// When set, interpretations that tie are ordered by how many of their choices agree
+  /// with this house convention (the house breaks ties; it never changes a residual).
+  std::optional<HouseConvention> house;
 };
+
+/// How many of an interpretation's choices (sequence and kind, unit, print order,
+/// quaternion layout, algebra and direction, matrix direction and storage) agree with a
+/// house convention.
+int house_agreement(const Interpretation& i, const HouseConvention& house);
 
 struct FinderResult {
   std::string mode;                  ///< "euler-quaternion", "euler-matrix", "quaternion-matrix", "product"
@@ -100,8 +109,10 @@ struct GravityResult {
 /// steadily along `expected_world` (the world's up for an accelerometer at rest, which
 /// measures the reaction to gravity: common practice). Error for fewer than two samples,
 /// a zero accelerometer vector, or poses of mixed counts.
+/// With a house convention, tied readings are ordered by agreement with it.
 Expected<GravityResult> gravity_test(const std::vector<GravitySample>& samples,
-                                     const Eigen::Vector3d& expected_world);
+                                     const Eigen::Vector3d& expected_world,
+                                     const std::optional<HouseConvention>& house = std::nullopt);
 
 /// "degrees" / "radians" and the like, as the JSON writes them.
 std::string quaternion_layout_key(QuatLayout l);  ///< "wxyz" / "xyzw"
