@@ -122,6 +122,8 @@ Expected<bool> read_frame(const toml::table* t, const std::string& prefix, Frame
                       "these axes disagree with frame = \"" + *preset.value() +
                           "\"; write frame = \"custom\" to use your own axes");
     }
+    // A custom frame's axes are called x, y, z unless the file names them.
+    if (!from_preset && frame->directions != *axes.value()) frame->names = {"x", "y", "z"};
     frame->directions = *axes.value();
   } else if (preset.value() && *preset.value() == "custom") {
     return error_at(*r.node("frame"), r.field("frame"), "a custom frame needs axes = [three directions]");

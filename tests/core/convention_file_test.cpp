@@ -146,6 +146,15 @@ TEST(ConventionFileTest, EveryKeyHasACommentAndEveryFieldADefault) {
   EXPECT_TRUE(same(partial.value().convention, expected));
 }
 
+TEST(ConventionFileTest, CustomAxesWithoutNamesAreCalledXyz) {
+  auto c = parse_convention("[world]\nframe = \"custom\"\naxes = [\"south\", \"up\", \"west\"]\n");
+  ASSERT_TRUE(c.ok()) << c.error().describe();
+  EXPECT_EQ(c.value().convention.world.names, (std::array<std::string, 3>{"x", "y", "z"}));
+  auto ned = parse_convention("[world]\nframe = \"NED\"\n");
+  ASSERT_TRUE(ned.ok());
+  EXPECT_EQ(ned.value().convention.world.names, (std::array<std::string, 3>{"N", "E", "D"}));
+}
+
 TEST(ConventionFileTest, DemoConventionsLoadAndSayTheyAreInvented) {
   for (const char* f : {"orchard-rover.toml", "survey-aircraft.toml", "camera-rig.toml"}) {
     auto c = load_convention(std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/" + f);
