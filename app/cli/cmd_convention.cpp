@@ -4,6 +4,7 @@
 #include <iostream>
 #include <nlohmann/json.hpp>
 
+#include "attiscope/core/convention_card.hpp"
 #include "attiscope/core/convention_file.hpp"
 #include "attiscope/core/finder.hpp"
 #include "attiscope/core/house_report.hpp"
@@ -28,6 +29,7 @@ const char* kConventionHelp =
     "                 with --pose TEXT, that pose in FILE2's convention\n"
     "  --write OUT    write the convention as a commented file (atomic: the old OUT survives\n"
     "                 a failed save)\n"
+    "  --card-md OUT  write the convention card as a Markdown page (atomic)\n"
     "\n"
     "Example:\n"
     "  attiscope convention assets/conventions/survey-aircraft.toml --steps \"30 10 5\"\n"
@@ -44,8 +46,9 @@ std::string frames(const HouseConvention& c) {
 
 int run_convention(const std::vector<std::string>& args, Streams io) {
   CommonOptions o;
-  if (auto err =
-          parse_common(args, {{"--steps", true}, {"--to", true}, {"--pose", true}, {"--write", true}}, &o)) {
+  if (auto err = parse_common(
+          args, {{"--steps", true}, {"--to", true}, {"--pose", true}, {"--write", true}, {"--card-md", true}},
+          &o)) {
     io.err << "attiscope convention: " << *err << "\n";
     return kExitBadInput;
   }
@@ -162,6 +165,15 @@ int run_convention(const std::vector<std::string>& args, Streams io) {
     }
     text += "\nwrote " + *out + "\n";
     j["written"] = *out;
+  }
+  if (auto out = o.last("--card-md")) {
+    auto saved = write_file_atomically(*out, convention_card_markdown(c));
+    if (!saved) {
+      io.err << "attiscope convention: " << saved.error().describe() << "\n";
+      return kExitBadInput;
+    }
+    text += "\nwrote " + *out + "\n";
+    j["card_markdown"] = *out;
   }
   if (o.json) {
     io.out << j.dump(2) << "\n";
