@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "attiscope/core/convention.hpp"
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/text.hpp"
 
@@ -20,11 +21,16 @@ inline constexpr int kExitBadInput = 2;
 
 /// Options every subcommand shares.
 struct CommonOptions {
-  EulerConvention euler;  ///< --euler SEQ with --intrinsic/--extrinsic
+  EulerConvention euler;     ///< --euler SEQ with --intrinsic/--extrinsic
+  bool euler_given = false;  ///< --euler, --intrinsic or --extrinsic was given explicitly
   AngleUnit unit = AngleUnit::Degrees;
   bool unit_given = false;        ///< --deg or --rad was given explicitly
   std::optional<ReadingKind> as;  ///< --as READING
   std::optional<std::string> convention_file;
+  /// The house convention loaded from --convention FILE (parse_common loads it).
+  std::optional<HouseConvention> convention;
+  /// Warnings found while loading it (unknown keys), each naming its line and column.
+  std::vector<std::string> convention_warnings;
   bool json = false;
   bool help = false;
   int precision = 6;
@@ -63,8 +69,16 @@ std::string common_options_help();
 /// (or the only one is "-").
 std::string input_text(const CommonOptions& options, std::istream& in);
 
+/// Reads one pose in a house convention: 3 numbers are its printed Euler angles (unless
+/// --euler/--intrinsic/--extrinsic or --deg/--rad in `o` ask for another reading), 4 its
+/// quaternion, 9 its matrix. `reading` gets a description; defects go to `warnings`.
+Expected<Rotation> read_in_house(const std::string& text, const HouseConvention& c, const CommonOptions& o,
+                                 std::string* reading, std::vector<std::string>* warnings);
+
 int run_convert(const std::vector<std::string>& args, Streams io);
 int run_render(const std::vector<std::string>& args, Streams io);
+int run_find(const std::vector<std::string>& args, Streams io);
+int run_convention(const std::vector<std::string>& args, Streams io);
 
 /// The top-level dispatcher: args excludes the program name.
 int run(const std::vector<std::string>& args, Streams io);

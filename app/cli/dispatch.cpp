@@ -16,6 +16,8 @@ struct Subcommand {
 const Subcommand kSubcommands[] = {
     {"convert", "read one pose, print every representation", run_convert},
     {"render", "headless PNG of the body in a pose", run_render},
+    {"find", "the conventions under which two texts are one rotation", run_find},
+    {"convention", "check a house convention file and show what it means", run_convention},
 };
 
 void print_usage(std::ostream& os) {

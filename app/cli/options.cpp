@@ -3,6 +3,7 @@
 #include <iterator>
 #include <sstream>
 
+#include "attiscope/core/convention_file.hpp"
 #include "cli/cli.hpp"
 
 namespace attiscope::cli {
@@ -66,10 +67,13 @@ std::optional<std::string> parse_common(const std::vector<std::string>& args,
       auto v = value();
       if (!v) return "--euler needs a sequence such as ZYX or 321";
       sequence = *v;
+      o->euler_given = true;
     } else if (a == "--intrinsic") {
       kind = EulerKind::Intrinsic;
+      o->euler_given = true;
     } else if (a == "--extrinsic") {
       kind = EulerKind::Extrinsic;
+      o->euler_given = true;
     } else if (a == "--deg") {
       o->unit = AngleUnit::Degrees;
       o->unit_given = true;
@@ -85,6 +89,12 @@ std::optional<std::string> parse_common(const std::vector<std::string>& args,
       auto v = value();
       if (!v) return "--convention needs a file";
       o->convention_file = *v;
+      auto loaded = load_convention(*v);
+      if (!loaded) return "--convention " + *v + ": " + loaded.error().describe();
+      o->convention = loaded.value().convention;
+      o->convention_warnings.clear();
+      for (const Error& w : loaded.value().warnings)
+        o->convention_warnings.push_back(*v + ": " + w.describe());
     } else if (a == "--precision") {
       auto v = value();
       int p = 0;
