@@ -1,0 +1,145 @@
+// card_widget.cpp: one Readouts card: its numbers as editable fields, its read-only lines,
+// its copy buttons, and the defect and nearest rotation of an invalid edit.
+#include <algorithm>
+#include <cstdio>
+
+#include "gui/card_values.hpp"
+#include "gui/ui.hpp"
+
+namespace attiscope::gui {
+
+namespace {
+
+const ImVec4 kProblemColour{0.98f, 0.55f, 0.38f, 1.0f};
+
+// The second convention's chooser: all 24 conventions.
+void second_convention_combo(Ui& ui) {
+  const EulerConvention current = ui.doc.state().second_euler;
+  ImGui::SetNextItemWidth(14.0f * ImGui::GetFontSize());
+  if (ImGui::BeginCombo("convention", current.name().c_str())) {
+    for (const EulerConvention& c : all_euler_conventions()) {
+      if (ImGui::Selectable(c.name().c_str(), c == current)) ui.doc.set_second_euler(c);
+    }
+    ImGui::EndCombo();
+  }
+  record_widget(ui, "euler_second.convention");
+}
+
+bool shows_labels(Card c) {
+  return c != Card::Matrix && c != Card::Su2 && c != Card::LeftRight;
+}
+
+void copy_buttons(Ui& ui, Card card) {
+  const DocumentState& s = ui.doc.state();
+  const std::string key = card_key(card);
+  if (ImGui::SmallButton("Copy text")) {
+    ImGui::SetClipboardText(card_plain_text(card, s).c_str());
+    ui.status = "copied " + key + " as text";
+  }
+  record_widget(ui, key + ".copy_text");
+  ImGui::SameLine();
+  if (ImGui::SmallButton("JSON")) {
+    ImGui::SetClipboardText(card_json(card, s).dump(2).c_str());
+    ui.status = "copied " + key + " as JSON";
+  }
+  record_widget(ui, key + ".copy_json");
+  ImGui::SameLine();
+  if (ImGui::SmallButton("C++")) {
+    ImGui::SetClipboardText(card_code_literal(card, s).c_str());
+    ui.status = "copied " + key + " as a C++ literal";
+  }
+  record_widget(ui, key + ".copy_code");
+}
+
+}  // namespace
+
+void draw_card(Ui& ui, Card card) {
+  Document& doc = ui.doc;
+  const DocumentState& s = doc.state();
+  const CardView view = card_view(card, s);
+  const std::string key = card_key(card);
+  ImGui::PushID(key.c_str());
+  if (ui.heading) ImGui::PushFont(ui.heading);
+  const bool open = ImGui::CollapsingHeader(view.title.c_str(), ImGuiTreeNodeFlags_DefaultOpen);
+  if (ui.heading) ImGui::PopFont();
+  record_widget(ui, key + ".header");
+  if (!open) {
+    ImGui::PopID();
+    return;
+  }
+  copy_buttons(ui, card);
+  if (card == Card::EulerSecond) {
+    ImGui::SameLine();
+    second_convention_combo(ui);
+  }
+
+  const CardEdit* edit = doc.edit(card);
+  std::vector<double> shown = edit ? edit->numbers : view.numbers;
+  const bool labels = shows_labels(card);
+  const float label_w = labels ? 7.5f * ImGui::GetFontSize() : 0.0f;
+  const float spacing = ImGui::GetStyle().ItemSpacing.x;
+  const int cols = view.columns;
+  const float field_w =
+      std::max(1.0f, (ImGui::GetContentRegionAvail().x - static_cast<float>(cols - 1) * spacing) /
+                             static_cast<float>(cols) -
+                         (labels ? label_w * 0.45f : 0.0f));
+  char format[16];
+  std::snprintf(format, sizeof format, "%%.%dg", s.convention.precision);
+  bool commit_now = false;
+  if (ui.mono) ImGui::PushFont(ui.mono);
+  if (!view.editable) ImGui::BeginDisabled();
+  for (std::size_t i = 0; i < shown.size(); ++i) {
+    if (i % static_cast<std::size_t>(cols) != 0) ImGui::SameLine();
+    if (labels) {
+      ImGui::AlignTextToFramePadding();
+      ImGui::TextUnformatted(view.labels[i].c_str());
+      ImGui::SameLine();
+    }
+    ImGui::SetNextItemWidth(field_w);
+    double value = shown[i];
+    const std::string id = "##" + std::to_string(i);
+    if (ImGui::InputDouble(id.c_str(), &value, 0.0, 0.0, format,
+                           ImGuiInputTextFlags_AutoSelectAll | ImGuiInputTextFlags_CharsScientific)) {
+      shown[i] = value;
+      doc.draft(card, shown);
+    }
+    if (ImGui::IsItemDeactivatedAfterEdit()) commit_now = true;
+    if (!labels && ImGui::IsItemHovered()) ImGui::SetTooltip("%s", view.labels[i].c_str());
+    record_widget(ui, key + "." + std::to_string(i));
+  }
+  if (!view.editable) ImGui::EndDisabled();
+  if (ui.mono) ImGui::PopFont();
+
+  if (commit_now) {
+    const CardEdit* e = doc.edit(card);
+    const std::vector<double> typed = e ? e->numbers : shown;
+    if (typed != view.numbers || (e && e->invalid)) {
+      const EditCheck check = check_card_edit(card, typed, s);
+      if (!check.note.empty()) ui.status = key + ": " + check.note;
+      doc.commit(card, typed, check);
+    } else {
+      doc.discard_edit(card);
+    }
+  }
+
+  for (const std::string& line : view.info) ImGui::TextDisabled("%s", line.c_str());
+
+  edit = doc.edit(card);
+  if (edit && edit->invalid) {
+    ImGui::PushStyleColor(ImGuiCol_Text, kProblemColour);
+    ImGui::TextWrapped("%s", edit->check.problem.c_str());
+    ImGui::PopStyleColor();
+    ImGui::TextWrapped("The document is unchanged until you choose:");
+    if (edit->check.nearest) {
+      if (ImGui::Button("Use nearest rotation")) doc.accept_nearest(card);
+      record_widget(ui, key + ".accept_nearest");
+      ImGui::SameLine();
+    }
+    if (ImGui::Button("Discard edit")) doc.discard_edit(card);
+    record_widget(ui, key + ".discard");
+  }
+  ImGui::Spacing();
+  ImGui::PopID();
+}
+
+}  // namespace attiscope::gui

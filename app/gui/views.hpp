@@ -1,0 +1,16 @@
+// views.hpp: the 3D views of the window (Scene and Gimbal rings), drawn by render/ straight
+// into their regions of the window's framebuffer after ImGui has drawn the panels.
+#pragma once
+
+#include "gui/ui.hpp"
+
+namespace attiscope::gui {
+
+/// Called once the GL context exists / before it goes.
+void views_init();
+void views_shutdown();
+/// Draws the Scene into ui.scene_viewport and the rings into ui.gimbal_viewport
+/// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport).
+void views_draw(const Ui& ui);
+
+}  // namespace attiscope::gui
