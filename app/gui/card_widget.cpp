@@ -85,7 +85,7 @@ void draw_card(Ui& ui, Card card) {
                          (labels ? label_w * 0.45f : 0.0f));
   char format[16];
   std::snprintf(format, sizeof format, "%%.%dg", s.convention.precision);
-  bool commit_now = false;
+  bool any_active = false;
   if (ui.mono) ImGui::PushFont(ui.mono);
   if (!view.editable) ImGui::BeginDisabled();
   for (std::size_t i = 0; i < shown.size(); ++i) {
@@ -103,34 +103,51 @@ void draw_card(Ui& ui, Card card) {
       shown[i] = value;
       doc.draft(card, shown);
     }
-    if (ImGui::IsItemDeactivatedAfterEdit()) commit_now = true;
+    any_active = any_active || ImGui::IsItemActive();
     if (!labels && ImGui::IsItemHovered()) ImGui::SetTooltip("%s", view.labels[i].c_str());
     record_widget(ui, key + "." + std::to_string(i));
   }
   if (!view.editable) ImGui::EndDisabled();
   if (ui.mono) ImGui::PopFont();
 
-  if (commit_now) {
-    const CardEdit* e = doc.edit(card);
-    const std::vector<double> typed = e ? e->numbers : shown;
-    if (typed != view.numbers || (e && e->invalid)) {
+  // A card's typed numbers are one edit: Tab moves between its fields and keeps the draft
+  // (so a quaternion can be typed number by number before it is normalised); Enter, or
+  // leaving the card's fields any other way, commits the draft.
+  const ImGuiIO& io = ImGui::GetIO();
+  const bool tabbing = ImGui::IsKeyPressed(io.KeyMap[ImGuiKey_Tab], false);
+  const CardEdit* e = doc.edit(card);
+  if (e && !e->invalid && !any_active && !tabbing) {
+    const std::vector<double> typed = e->numbers;
+    if (typed != view.numbers) {
       const EditCheck check = check_card_edit(card, typed, s);
       if (!check.note.empty()) ui.status = key + ": " + check.note;
       doc.commit(card, typed, check);
     } else {
       doc.discard_edit(card);
     }
+  } else if (e && e->invalid && !any_active && !tabbing && e->numbers != e->check_numbers) {
+    // Further typing into an invalid card: check the new numbers.
+    const std::vector<double> typed = e->numbers;
+    doc.commit(card, typed, check_card_edit(card, typed, s));
   }
 
-  for (const std::string& line : view.info) ImGui::TextDisabled("%s", line.c_str());
-
   edit = doc.edit(card);
+  // The read-only lines describe the document's pose; while an invalid edit is shown they
+  // would contradict the typed numbers, so the edit's defect takes their place.
+  if (!(edit && edit->invalid)) {
+    for (const std::string& line : view.info) ImGui::TextDisabled("%s", line.c_str());
+  }
   if (edit && edit->invalid) {
     ImGui::PushStyleColor(ImGuiCol_Text, kProblemColour);
     ImGui::TextWrapped("%s", edit->check.problem.c_str());
     ImGui::PopStyleColor();
     ImGui::TextWrapped("The document is unchanged until you choose:");
     if (edit->check.nearest) {
+      ImGui::TextDisabled(
+          "nearest rotation: %s deg from the current pose",
+          format_number(
+              geodesic_angle(s.world_R_body, *edit->check.nearest) * angle_scale(AngleUnit::Degrees), 4)
+              .c_str());
       if (ImGui::Button("Use nearest rotation")) doc.accept_nearest(card);
       record_widget(ui, key + ".accept_nearest");
       ImGui::SameLine();

@@ -146,6 +146,7 @@ void Document::commit(Card c, std::vector<double> numbers, const EditCheck& chec
   e.numbers = std::move(numbers);
   e.invalid = true;
   e.check = check;
+  e.check_numbers = e.numbers;
 }
 
 void Document::accept_nearest(Card c) {

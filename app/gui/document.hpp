@@ -57,9 +57,10 @@ struct EditCheck {
 
 /// A card's edit in progress (typed, not yet committed) or committed but invalid.
 struct CardEdit {
-  std::vector<double> numbers;  ///< the card's numbers as the person typed them
-  bool invalid = false;         ///< committed, and not a valid rotation
-  EditCheck check;              ///< valid only when invalid == true
+  std::vector<double> numbers;        ///< the card's numbers as the person typed them
+  bool invalid = false;               ///< committed, and not a valid rotation
+  EditCheck check;                    ///< valid only when invalid == true
+  std::vector<double> check_numbers;  ///< the numbers `check` is about
 };
 
 class Document {

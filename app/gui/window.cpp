@@ -377,6 +377,9 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         << ": opening logs and convention files from the command line is not built yet\n";
   }
   const bool driven = opt.script_path.has_value() || opt.bench_frames > 0;
+  // Scripts save settings like a person's session would (tests point XDG_CONFIG_HOME at a
+  // temporary folder); the benchmark leaves them alone.
+  const bool saves = opt.bench_frames == 0;
 
   const std::string dir = config_dir().value_or("");
   std::string warning;
@@ -418,7 +421,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   ImGuiIO& io = ImGui::GetIO();
   io.IniFilename = nullptr;  // saved by us, atomically, in the config folder
   const std::string ini_path = dir.empty() ? "" : dir + "/imgui.ini";
-  if (!ini_path.empty() && !driven) {
+  if (!ini_path.empty() && saves) {
     std::ifstream ini(ini_path);
     std::stringstream text;
     text << ini.rdbuf();
@@ -510,7 +513,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       store.changed(settings, now_s);
       ui.settings_changed = false;
     }
-    if (!driven) {
+    if (saves) {
       store.save_if_due(seconds(entered, Clock::now()));
       if (io.WantSaveIniSettings && !ini_path.empty()) {
         write_file_atomically(ini_path, ImGui::SaveIniSettingsToMemory());
@@ -525,7 +528,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     }
   }
 
-  if (!driven) {
+  if (saves) {
     int ww = 0, wh = 0;
     glfwGetWindowSize(window, &ww, &wh);
     if (ww != settings.window_width || wh != settings.window_height) {
