@@ -198,8 +198,8 @@ CardView card_view(Card c, const DocumentState& s) {
     }
     case Card::AxisAngle: {
       const AxisAngle aa = to_axis_angle(r);
-      v.title = "Axis-angle";
-      v.labels = {"axis x", "axis y", "axis z", std::string("angle ") + u};
+      v.title = std::string("Axis-angle (unit axis, angle in ") + u + ")";
+      v.labels = {"x", "y", "z", "angle"};
       v.numbers = {aa.axis.x(), aa.axis.y(), aa.axis.z(), aa.angle_rad * k};
       break;
     }

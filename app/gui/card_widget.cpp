@@ -76,13 +76,19 @@ void draw_card(Ui& ui, Card card) {
   const CardEdit* edit = doc.edit(card);
   std::vector<double> shown = edit ? edit->numbers : view.numbers;
   const bool labels = shows_labels(card);
-  const float label_w = labels ? 7.5f * ImGui::GetFontSize() : 0.0f;
   const float spacing = ImGui::GetStyle().ItemSpacing.x;
   const int cols = view.columns;
+  float label_w = 0.0f;  // the widest label, so every field of the card gets the same width
+  if (labels) {
+    if (ui.mono) ImGui::PushFont(ui.mono);
+    for (const std::string& l : view.labels) label_w = std::max(label_w, ImGui::CalcTextSize(l.c_str()).x);
+    if (ui.mono) ImGui::PopFont();
+    label_w += spacing;
+  }
   const float field_w =
       std::max(1.0f, (ImGui::GetContentRegionAvail().x - static_cast<float>(cols - 1) * spacing) /
                              static_cast<float>(cols) -
-                         (labels ? label_w * 0.45f : 0.0f));
+                         label_w);
   char format[16];
   std::snprintf(format, sizeof format, "%%.%dg", s.convention.precision);
   bool any_active = false;
@@ -93,7 +99,9 @@ void draw_card(Ui& ui, Card card) {
     if (labels) {
       ImGui::AlignTextToFramePadding();
       ImGui::TextUnformatted(view.labels[i].c_str());
-      ImGui::SameLine();
+      ImGui::SameLine(0.0f, 0.0f);
+      ImGui::Dummy(ImVec2(label_w - spacing - ImGui::CalcTextSize(view.labels[i].c_str()).x, 1.0f));
+      ImGui::SameLine(0.0f, spacing);
     }
     ImGui::SetNextItemWidth(field_w);
     double value = shown[i];
@@ -135,7 +143,9 @@ void draw_card(Ui& ui, Card card) {
   // The read-only lines describe the document's pose; while an invalid edit is shown they
   // would contradict the typed numbers, so the edit's defect takes their place.
   if (!(edit && edit->invalid)) {
-    for (const std::string& line : view.info) ImGui::TextDisabled("%s", line.c_str());
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::GetStyle().Colors[ImGuiCol_TextDisabled]);
+    for (const std::string& line : view.info) ImGui::TextWrapped("%s", line.c_str());
+    ImGui::PopStyleColor();
   }
   if (edit && edit->invalid) {
     ImGui::PushStyleColor(ImGuiCol_Text, kProblemColour);

@@ -14,8 +14,8 @@ constexpr double kRadPerDeg = 3.14159265358979323846 / 180.0;
 void convention_selector(Ui& ui) {
   const auto& builtins = builtin_conventions();
   const DisplayConvention& current = ui.doc.convention();
-  ImGui::SetNextItemWidth(22.0f * ImGui::GetFontSize());
-  if (ImGui::BeginCombo("House convention", current.name.c_str())) {
+  ImGui::SetNextItemWidth(17.0f * ImGui::GetFontSize());
+  if (ImGui::BeginCombo("House", current.name.c_str())) {
     for (std::size_t i = 0; i < builtins.size(); ++i) {
       const bool selected = builtins[i].name == current.name;
       if (ImGui::Selectable(builtins[i].name.c_str(), selected)) {
@@ -109,7 +109,15 @@ void draw_toolbar(Ui& ui) {
 
   nudge_buttons(ui);
   ImGui::SameLine();
-  ImGui::TextDisabled("keys: x y z (Shift: back, Alt: world)  Ctrl+Z / Ctrl+Shift+Z  Ctrl+V to Intake");
+  ImGui::TextDisabled("(keys)");
+  if (ImGui::IsItemHovered()) {
+    ImGui::SetTooltip(
+        "x, y, z: turn the body by the step about its own axis\n"
+        "Shift+x/y/z: turn back; Alt: about the world's axis\n"
+        "Ctrl+Z undo, Ctrl+Shift+Z (or Ctrl+Y) redo\n"
+        "Ctrl+V outside a field: paste into the Intake\n"
+        "Tab moves between a card's numbers; Enter applies them");
+  }
   if (!ui.status.empty()) {
     ImGui::SameLine();
     ImGui::TextUnformatted(ui.status.c_str());
