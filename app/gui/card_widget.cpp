@@ -25,6 +25,18 @@ void second_convention_combo(Ui& ui) {
   record_widget(ui, "euler_second.convention");
 }
 
+// A read-only line "label:  numbers": the numbers go on the next line when the whole does
+// not fit, so a number is never broken at its decimal point.
+void info_line(const std::string& line) {
+  const auto split = line.find(":  ");
+  if (split == std::string::npos || ImGui::CalcTextSize(line.c_str()).x <= ImGui::GetContentRegionAvail().x) {
+    ImGui::TextDisabled("%s", line.c_str());
+    return;
+  }
+  ImGui::TextDisabled("%s", line.substr(0, split + 1).c_str());
+  ImGui::TextDisabled("  %s", line.substr(split + 3).c_str());
+}
+
 bool shows_labels(Card c) {
   return c != Card::Matrix && c != Card::Su2 && c != Card::LeftRight;
 }
@@ -143,9 +155,7 @@ void draw_card(Ui& ui, Card card) {
   // The read-only lines describe the document's pose; while an invalid edit is shown they
   // would contradict the typed numbers, so the edit's defect takes their place.
   if (!(edit && edit->invalid)) {
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::GetStyle().Colors[ImGuiCol_TextDisabled]);
-    for (const std::string& line : view.info) ImGui::TextWrapped("%s", line.c_str());
-    ImGui::PopStyleColor();
+    for (const std::string& line : view.info) info_line(line);
   }
   if (edit && edit->invalid) {
     ImGui::PushStyleColor(ImGuiCol_Text, kProblemColour);
