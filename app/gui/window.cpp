@@ -433,6 +433,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     return 2;
   }
   glfwMakeContextCurrent(window);
+  const double context_s = seconds(entered, Clock::now());
   glfwSwapInterval(driven ? 0 : 1);
   glfwSetWindowSizeLimits(window, 200, 150, GLFW_DONT_CARE, GLFW_DONT_CARE);
 
@@ -459,6 +460,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   build_fonts(ui, scale);
   ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
   nearest_font_filter();
+  const double fonts_s = seconds(entered, Clock::now());
   views_init();
 
   int frames_left = kFramesAfterEvent;
@@ -472,8 +474,10 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   int frame_index = 0;
   while (!glfwWindowShouldClose(window)) {
     const double now_s = seconds(entered, Clock::now());
-    if (driven || frames_left > 0 || ui.spinning) {
+    if (driven || frames_left > 0) {
       glfwPollEvents();
+    } else if (ui.spinning) {
+      glfwWaitEventsTimeout(kAnimationWaitS);  // the animation's pace: at most about 60 frames a second
     } else {
       const double due = store.seconds_until_due(now_s);
       if (due >= 0.0) {
@@ -592,6 +596,11 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         "  per frame: process CPU median %.2f ms (all threads); UI build (NewFrame..Render) median %.2f "
         "ms; ImGui draw to glFinish median %.2f ms; %d ImGui vertices\n",
         percentile(frame_cpu, 0.5), percentile(ui_cpu, 0.5), percentile(imgui_draw_wall, 0.5), last_vertices);
+    out << line;
+    std::snprintf(
+        line, sizeof line,
+        "  start-up: window and GL context %.1f ms, fonts and shaders %.1f ms, first frame %.1f ms\n",
+        context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
     out << line;
   }
   views_shutdown();
