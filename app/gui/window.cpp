@@ -564,7 +564,8 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       }
     }
     if (doc.changed()) {
-      frames_left = std::max(frames_left, 1);
+      // One more frame so every card shows the change; while spinning the pace is the timer's.
+      if (!ui.spinning) frames_left = std::max(frames_left, 1);
       doc.clear_changed();
     } else if (frames_left > 0) {
       --frames_left;
