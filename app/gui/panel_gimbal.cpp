@@ -1,5 +1,5 @@
 // panel_gimbal.cpp: the Gimbal rings panel. It leaves its client region empty and reports it, in
-// framebuffer pixels, in ui.gimbal_viewport; after ImGui has drawn, the window draws the rings
+// framebuffer pixels, in ui.gimbal_viewport; before ImGui draws, the window draws the rings
 // straight into that viewport (no offscreen copy, no ImGui::Image).
 #include <algorithm>
 

@@ -1,5 +1,5 @@
 // panel_scene.cpp: the Scene panel. It leaves its client region empty and reports it, in
-// framebuffer pixels, in ui.scene_viewport; after ImGui has drawn, the window draws the 3D
+// framebuffer pixels, in ui.scene_viewport; before ImGui draws, the window draws the 3D
 // view straight into that viewport (no offscreen copy, no ImGui::Image).
 #include <algorithm>
 

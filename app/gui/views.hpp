@@ -1,5 +1,8 @@
 // views.hpp: the 3D views of the window (Scene and Gimbal rings), drawn by render/ straight
-// into their regions of the window's framebuffer after ImGui has drawn the panels.
+// into their regions of the window's framebuffer after the frame's clear and before ImGui
+// draws the panels (whose popups then stay on top). A view sets its own viewport, scissor
+// and depth state, clears its region if it wants another colour, and leaves blending as
+// the ImGui backend expects nothing (it sets its own state each frame).
 #pragma once
 
 #include "gui/ui.hpp"

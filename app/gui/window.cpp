@@ -526,10 +526,12 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     glClearColor(panel.x, panel.y, panel.z, 1.0f);
     glClear(GL_COLOR_BUFFER_BIT);
     const Clock::time_point draw_start = Clock::now();
+    // The 3D views first, into their regions (the Scene and Gimbal panels have no
+    // background), so ImGui's popups and tooltips stay on top of them.
+    views_draw(ui);
     ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
     if (opt.bench_frames > 0) glFinish();  // so the ImGui draw's own cost can be reported
     const double draw_wall = seconds(draw_start, Clock::now());
-    views_draw(ui);
     if (opt.script_path) script_after_draw(player, ui, window, err);
     glfwSwapBuffers(window);
 
