@@ -1,8 +1,8 @@
 // views.hpp: the 3D views of the window (Scene and Gimbal rings), drawn by render/ straight
 // into their regions of the window's framebuffer after the frame's clear and before ImGui
 // draws the panels (whose popups then stay on top). A view sets its own viewport, scissor
-// and depth state, clears its region if it wants another colour, and leaves blending as
-// the ImGui backend expects nothing (it sets its own state each frame).
+// and depth state and clears its region if it wants another colour; the ImGui backend sets
+// all of its own GL state each frame, so a view need not restore any.
 #pragma once
 
 #include "gui/ui.hpp"
