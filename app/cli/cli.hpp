@@ -80,7 +80,11 @@ int run_render(const std::vector<std::string>& args, Streams io);
 int run_find(const std::vector<std::string>& args, Streams io);
 int run_convention(const std::vector<std::string>& args, Streams io);
 
-/// The top-level dispatcher: args excludes the program name.
-int run(const std::vector<std::string>& args, Streams io);
+/// The window's entry point (app/gui/gui.hpp), when the executable is built with it.
+using WindowEntry = int (*)(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+
+/// The top-level dispatcher: args excludes the program name. No args (or `gui ...`) opens
+/// the window through `window`; without one it prints the usage (no args) or an error.
+int run(const std::vector<std::string>& args, Streams io, WindowEntry window = nullptr);
 
 }  // namespace attiscope::cli

@@ -13,7 +13,9 @@ struct Subcommand {
   int (*run)(const std::vector<std::string>&, Streams);
 };
 
+// `gui` has no function here: run() hands it to the window entry the executable passes in.
 const Subcommand kSubcommands[] = {
+    {"gui", "the window, opening logs or convention files", nullptr},
     {"convert", "read one pose, print every representation", run_convert},
     {"render", "headless PNG of the body in a pose", run_render},
     {"find", "the conventions under which two texts are one rotation", run_find},
@@ -33,13 +35,19 @@ void print_usage(std::ostream& os) {
 
 }  // namespace
 
-int run(const std::vector<std::string>& args, Streams io) {
+int run(const std::vector<std::string>& args, Streams io, WindowEntry window) {
+  if (args.empty() && window) return window({}, io.out, io.err);
   if (args.empty() || args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
     print_usage(io.out);
     return kExitOk;
   }
   for (const Subcommand& s : kSubcommands) {
-    if (args[0] == s.name) return s.run(std::vector<std::string>(args.begin() + 1, args.end()), io);
+    if (args[0] != s.name) continue;
+    const std::vector<std::string> rest(args.begin() + 1, args.end());
+    if (s.run) return s.run(rest, io);
+    if (window) return window(rest, io.out, io.err);
+    io.err << "attiscope: this build has no window (configured with ATTISCOPE_BUILD_GUI=OFF)\n";
+    return kExitBadInput;
   }
   io.err << "attiscope: unknown subcommand '" << args[0] << "'\n";
   print_usage(io.err);

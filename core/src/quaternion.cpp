@@ -2,6 +2,7 @@
 // 2x2 complex forms.
 #include "attiscope/core/quaternion.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <complex>
 #include <cstdio>
@@ -119,6 +120,29 @@ Expected<Rotation> from_su2_matrix(const Eigen::Matrix2cd& u, double tolerance) 
     return Error{"this 2x2 complex matrix is not of the form [[w + x i, y + z i], [-y + z i, w - x i]]"};
   }
   return from_quaternion_numbers({w, x, y, z}, QuatConvention{});
+}
+
+Expected<Rotation> from_multiplication_matrix(const Eigen::Matrix4d& m, MultiplicationSide side,
+                                              double tolerance) {
+  if (!m.allFinite()) return Error{"the 4x4 matrix has a number that is not finite"};
+  Eigen::Vector4d p;
+  for (int i = 0; i < 4; ++i) {
+    Eigen::Vector4d e = Eigen::Vector4d::Zero();
+    e(i) = 1.0;
+    const Eigen::Quaterniond ei(e(0), e(1), e(2), e(3));
+    const Eigen::Matrix4d basis =
+        side == MultiplicationSide::Left ? left_multiplication_matrix(ei) : right_multiplication_matrix(ei);
+    p(i) = (basis.transpose() * m).trace() / 4.0;
+  }
+  const Eigen::Quaterniond q(p(0), p(1), p(2), p(3));
+  const Eigen::Matrix4d back =
+      side == MultiplicationSide::Left ? left_multiplication_matrix(q) : right_multiplication_matrix(q);
+  if ((back - m).norm() > tolerance * std::max(1.0, m.norm())) {
+    return Error{side == MultiplicationSide::Left
+                     ? "this 4x4 matrix is not a left-multiplication matrix L(q) of a quaternion"
+                     : "this 4x4 matrix is not a right-multiplication matrix R(q) of a quaternion"};
+  }
+  return from_quaternion_numbers({p(0), p(1), p(2), p(3)}, QuatConvention{});
 }
 
 }  // namespace attiscope

@@ -83,6 +83,17 @@ Eigen::Matrix4d left_multiplication_matrix(const Eigen::Quaterniond& p);
 /// 4x4 real matrix of right multiplication: p (x) q = R(q) p, numbers (w, x, y, z).
 Eigen::Matrix4d right_multiplication_matrix(const Eigen::Quaterniond& q);
 
+/// Which multiplication matrix: L(p) (p on the left) or R(q) (q on the right).
+enum class MultiplicationSide { Left, Right };
+
+/// Inverse of left_multiplication_matrix / right_multiplication_matrix. Both are linear in
+/// the quaternion with the orthogonal basis L(e_i) (or R(e_i)), <B_i, B_j> = 4 delta_ij, so
+/// the nearest form in the Frobenius norm has p_i = trace(B_i^T m) / 4 (a least-squares
+/// projection). Error when m is farther than `tolerance` (relative) from that form, or zero.
+/// A tolerance of +infinity gives the nearest rotation of any finite matrix.
+Expected<Rotation> from_multiplication_matrix(const Eigen::Matrix4d& m, MultiplicationSide side,
+                                              double tolerance = 1e-6);
+
 /// The 2x2 complex (SU(2)) form, layout U(q) = [[w + x i, y + z i], [-y + z i, w - x i]].
 /// U(p) U(q) = U(p (x) q) and det U = |q|^2.
 Eigen::Matrix2cd su2_matrix(const Eigen::Quaterniond& q);

@@ -1,0 +1,66 @@
+// ui.hpp: what every panel gets each frame: the document, the settings, the window's
+// transient state (the intake text, the regions left for the 3D views) and the fonts.
+// Panels are functions `void draw_NAME(Ui&)`, one file each; they read the document, draw,
+// and turn edits into document commands. They call core for every number they show.
+#pragma once
+
+#include <map>
+#include <string>
+
+#include <imgui.h>
+
+#include "gui/document.hpp"
+#include "gui/settings.hpp"
+
+namespace attiscope::gui {
+
+/// A rectangle of the window's framebuffer in pixels, origin bottom-left (what glViewport
+/// and glScissor take). Empty (w or h 0) when the region is hidden.
+struct FramebufferRect {
+  int x = 0;
+  int y = 0;
+  int width = 0;
+  int height = 0;
+  bool empty() const { return width <= 0 || height <= 0; }
+};
+
+struct Ui {
+  Ui(Document& document, Settings& window_settings) : doc(document), settings(window_settings) {}
+  Document& doc;
+  Settings& settings;
+  bool settings_changed = false;    ///< a panel changed a setting this frame
+  ImFont* mono = nullptr;           ///< numbers
+  ImFont* heading = nullptr;        ///< card titles
+  float scale = 1.0f;               ///< content scale x UI scale
+  std::string intake_text;          ///< the Intake paste box
+  bool focus_intake = false;        ///< Ctrl+V was pressed outside a text field
+  bool spinning = false;            ///< the body turns continuously (toolbar toggle)
+  bool rebuild_fonts = false;       ///< the UI scale changed
+  FramebufferRect scene_viewport;   ///< where the Scene's 3D view goes
+  FramebufferRect gimbal_viewport;  ///< where the Gimbal rings go
+  std::string status;               ///< one line at the foot of the toolbar ("copied ...")
+  /// Screen rectangles of named widgets this frame ("quaternion.0", "undo"...), so test
+  /// scripts can click them like a person would.
+  std::map<std::string, ImVec4> widgets;
+};
+
+/// Records the last ImGui item under a test name.
+void record_widget(Ui& ui, const std::string& name);
+
+/// Converts a region of the ImGui display (points, origin top-left) into framebuffer pixels.
+FramebufferRect to_framebuffer_rect(ImVec2 min, ImVec2 max);
+
+void draw_toolbar(Ui& ui);
+void draw_readouts(Ui& ui);
+void draw_card(Ui& ui, Card card);
+void draw_intake(Ui& ui);
+void draw_scene_panel(Ui& ui);
+void draw_gimbal_panel(Ui& ui);
+
+/// Keyboard shortcuts of the whole window (undo, redo, nudges, Ctrl+V to the intake).
+void handle_shortcuts(Ui& ui);
+
+/// The window's look: palette and spacing, at a scale.
+void apply_theme(float scale);
+
+}  // namespace attiscope::gui

@@ -1,0 +1,618 @@
+// window.cpp: the GLFW window, the Dear ImGui frame, the panel layout and the main loop.
+// The loop waits for events and draws only when something happened (input, a resize, the
+// spin animation, a pending settings save), so an idle window costs almost nothing on the
+// CPU renderer. Test scripts (script.hpp) and the frame-time benchmark drive the same loop.
+#include <GLFW/glfw3.h>
+#include <imgui.h>
+#include <imgui_impl_glfw.h>
+#include <imgui_impl_opengl3.h>
+#include <stb_image_write.h>
+
+#include <unistd.h>
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdint>
+#include <cstdio>
+#include <ctime>
+#include <fstream>
+#include <iostream>
+#include <optional>
+#include <sstream>
+
+#include "gui/card_values.hpp"
+#include "gui/gui.hpp"
+#include "gui/script.hpp"
+#include "gui/ui.hpp"
+#include "gui/views.hpp"
+
+namespace attiscope::gui {
+
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+constexpr double kPi = 3.14159265358979323846;
+constexpr float kBaseFontPx = 16.0f;
+/// Frames drawn after each wake-up, so hover and click state settle.
+constexpr int kFramesAfterEvent = 2;
+/// The spin animation's turn rate about the body z axis.
+constexpr double kSpinRadPerS = 30.0 * kPi / 180.0;
+/// Longest wait between frames while something is animating or due.
+constexpr double kAnimationWaitS = 1.0 / 60.0;
+
+const char* kWindowHelp =
+    "usage: attiscope gui [FILE...] [--size WxH] [--script FILE] [--bench N]\n"
+    "\n"
+    "Opens the window on the demo scene (an invented survey-aircraft pose).\n"
+    "  --size WxH      initial window size in screen coordinates\n"
+    "  --script FILE   drive the window with a test script, then close (see app/gui/script.hpp)\n"
+    "  --bench N       frame-time benchmark: N frames while the body turns, then print the\n"
+    "                  median and 95th percentile frame time and the time to the first frame\n"
+    "Settings and the panel layout are kept in $XDG_CONFIG_HOME/attiscope (else\n"
+    "~/.config/attiscope).\n";
+
+struct WindowOptions {
+  std::vector<std::string> files;
+  std::optional<std::string> script_path;
+  int bench_frames = 0;
+  int width = 0;
+  int height = 0;
+};
+
+std::optional<std::string> parse_options(const std::vector<std::string>& args, WindowOptions* o, bool* help) {
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    auto value = [&](std::string* out) -> bool {
+      if (i + 1 >= args.size()) return false;
+      *out = args[++i];
+      return true;
+    };
+    std::string v;
+    if (a == "--help" || a == "-h") {
+      *help = true;
+    } else if (a == "--script") {
+      if (!value(&v)) return "--script needs a FILE";
+      o->script_path = v;
+    } else if (a == "--bench") {
+      if (!value(&v)) return "--bench needs a frame count";
+      o->bench_frames = std::atoi(v.c_str());
+      if (o->bench_frames < 1) return "--bench needs a positive frame count";
+    } else if (a == "--size") {
+      if (!value(&v) || std::sscanf(v.c_str(), "%dx%d", &o->width, &o->height) != 2 || o->width < 1 ||
+          o->height < 1)
+        return "--size needs WxH, e.g. 1600x900";
+    } else if (!a.empty() && a[0] == '-') {
+      return "unknown option '" + a + "'";
+    } else {
+      o->files.push_back(a);
+    }
+  }
+  return std::nullopt;
+}
+
+/// The demo scene: an invented survey aircraft on a photo run, heading 62 deg, elevation
+/// 4 deg, bank -12 deg (intrinsic ZYX). Invented for the demo; not data of any vehicle.
+DocumentState demo_state(const Settings& settings) {
+  DocumentState s;
+  const auto& builtins = builtin_conventions();
+  s.convention = builtins[static_cast<std::size_t>(
+      std::clamp(settings.convention_index, 0, static_cast<int>(builtins.size()) - 1))];
+  const EulerConvention zyx{{Axis::Z, Axis::Y, Axis::X}, EulerKind::Intrinsic};
+  s.world_R_body = from_euler(zyx, Eigen::Vector3d(62.0, 4.0, -12.0) * (kPi / 180.0));
+  return s;
+}
+
+void build_fonts(Ui& ui, float scale) {
+  ImGuiIO& io = ImGui::GetIO();
+  io.Fonts->Clear();
+  static const ImWchar kRanges[] = {0x0020, 0x00FF, 0x2010, 0x2027, 0x2212, 0x2212, 0};
+  const std::string dir = ATTISCOPE_FONT_DIR;
+  auto load = [&](const char* file, float px) -> ImFont* {
+    const std::string path = dir + "/" + file;
+    if (std::ifstream(path).good())
+      return io.Fonts->AddFontFromFileTTF(path.c_str(), px * scale, nullptr, kRanges);
+    ImFontConfig cfg;
+    cfg.SizePixels = px * scale;
+    return io.Fonts->AddFontDefault(&cfg);
+  };
+  load("DejaVuSans.ttf", kBaseFontPx);  // the first font is the default
+  ui.heading = load("DejaVuSans-Bold.ttf", kBaseFontPx);
+  ui.mono = load("DejaVuSansMono.ttf", kBaseFontPx - 1.0f);
+  io.Fonts->Build();
+  apply_theme(scale);
+  ui.scale = scale;
+}
+
+float window_scale(GLFWwindow* w, const Settings& s) {
+  float xs = 1.0f, ys = 1.0f;
+  if (s.use_content_scale) glfwGetWindowContentScale(w, &xs, &ys);
+  return std::clamp(std::max(xs, ys), 0.5f, 4.0f) * std::clamp(s.ui_scale, 0.5f, 4.0f);
+}
+
+/// Lays out the panels in fixed regions of the display (Dear ImGui 1.86 has no docking).
+void draw_panels(Ui& ui) {
+  const ImGuiIO& io = ImGui::GetIO();
+  const float w = std::max(1.0f, io.DisplaySize.x);
+  const float h = std::max(1.0f, io.DisplaySize.y);
+  const ImGuiStyle& st = ImGui::GetStyle();
+  const float toolbar_h = std::min(h, 2.0f * ImGui::GetFrameHeightWithSpacing() + 2.0f * st.WindowPadding.y);
+  // No panel draws its own background: the frame's clear paints the panel colour once, so
+  // llvmpipe does not blend a full-window quad over it (the largest cost of an ImGui frame).
+  const ImGuiWindowFlags fixed = ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoResize |
+                                 ImGuiWindowFlags_NoCollapse | ImGuiWindowFlags_NoBackground;
+  auto place = [](float x, float y, float ww, float hh) {
+    ImGui::SetNextWindowPos(ImVec2(x, y), ImGuiCond_Always);
+    ImGui::SetNextWindowSize(ImVec2(std::max(1.0f, ww), std::max(1.0f, hh)), ImGuiCond_Always);
+  };
+  place(0, 0, w, toolbar_h);
+  if (ImGui::Begin("Toolbar", nullptr,
+                   fixed | ImGuiWindowFlags_NoTitleBar | ImGuiWindowFlags_HorizontalScrollbar |
+                       ImGuiWindowFlags_NoScrollWithMouse)) {
+    draw_toolbar(ui);
+  }
+  ImGui::End();
+
+  const float body_h = std::max(1.0f, h - toolbar_h);
+  const float left_w = std::min(w, std::max(std::min(w, 470.0f * ui.scale), 0.42f * w));
+  place(0, toolbar_h, left_w, body_h);
+  if (ImGui::Begin("Readouts", nullptr, fixed)) draw_readouts(ui);
+  ImGui::End();
+
+  const float right_x = left_w;
+  const float right_w = std::max(1.0f, w - left_w);
+  const float scene_h = std::floor(body_h * 0.58f);
+  const ImGuiWindowFlags view = fixed | ImGuiWindowFlags_NoBackground | ImGuiWindowFlags_NoScrollbar |
+                                ImGuiWindowFlags_NoScrollWithMouse;
+  ui.scene_viewport = {};
+  ui.gimbal_viewport = {};
+  if (ui.settings.show_scene) {
+    place(right_x, toolbar_h, right_w, scene_h);
+    if (ImGui::Begin("Scene", nullptr, view)) draw_scene_panel(ui);
+    ImGui::End();
+  }
+  const float bottom_y = toolbar_h + scene_h;
+  const float bottom_h = std::max(1.0f, body_h - scene_h);
+  const float gimbal_w = std::floor(right_w * 0.42f);
+  if (ui.settings.show_gimbal) {
+    place(right_x, bottom_y, gimbal_w, bottom_h);
+    if (ImGui::Begin("Gimbal rings", nullptr, view)) draw_gimbal_panel(ui);
+    ImGui::End();
+  }
+  place(right_x + gimbal_w, bottom_y, right_w - gimbal_w, bottom_h);
+  if (ImGui::Begin("Intake", nullptr, fixed)) draw_intake(ui);
+  ImGui::End();
+}
+
+nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
+  nlohmann::json j;
+  j["document"] = ui.doc.to_json();
+  nlohmann::json cards = nlohmann::json::object();
+  for (Card c : all_cards()) {
+    const CardView v = card_view(c, ui.doc.state());
+    cards[card_key(c)] = {{"title", v.title}, {"labels", v.labels}, {"numbers", v.numbers}, {"info", v.info}};
+  }
+  j["cards"] = cards;
+  nlohmann::json widgets = nlohmann::json::array();
+  for (const auto& [name, rect] : ui.widgets) widgets.push_back(name);
+  j["widgets"] = widgets;
+  int fw = 0, fh = 0;
+  glfwGetFramebufferSize(window, &fw, &fh);
+  j["framebuffer"] = {fw, fh};
+  auto rect = [](const FramebufferRect& r) { return nlohmann::json{r.x, r.y, r.width, r.height}; };
+  j["scene_viewport"] = rect(ui.scene_viewport);
+  j["gimbal_viewport"] = rect(ui.gimbal_viewport);
+  j["status"] = ui.status;
+  return j;
+}
+
+bool write_screenshot(GLFWwindow* window, const std::string& path) {
+  int fw = 0, fh = 0;
+  glfwGetFramebufferSize(window, &fw, &fh);
+  if (fw <= 0 || fh <= 0) return false;
+  std::vector<unsigned char> pixels(static_cast<std::size_t>(fw) * static_cast<std::size_t>(fh) * 3);
+  glPixelStorei(GL_PACK_ALIGNMENT, 1);
+  glReadBuffer(GL_BACK);
+  glReadPixels(0, 0, fw, fh, GL_RGB, GL_UNSIGNED_BYTE, pixels.data());
+  const std::size_t row = static_cast<std::size_t>(fw) * 3;
+  for (int y = 0; y < fh / 2; ++y) {  // GL rows are bottom-up, PNG rows top-down
+    std::swap_ranges(
+        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(y)),
+        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(y + 1)),
+        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(fh - 1 - y)));
+  }
+  return stbi_write_png(path.c_str(), fw, fh, 3, pixels.data(), static_cast<int>(row)) != 0;
+}
+
+/// Where a script is, and the input it is giving this frame.
+struct ScriptPlayer {
+  std::vector<ScriptStep> steps;
+  std::size_t next = 0;
+  int phase = 0;  ///< frame within the current step
+  ImVec2 mouse{-FLT_MAX, -FLT_MAX};
+  bool mouse_down = false;
+  std::optional<KeySpec> key_down;
+  bool failed = false;
+  bool done() const { return next >= steps.size(); }
+};
+
+/// Feeds the current step's input to ImGui. Runs after the platform backend's NewFrame (which
+/// reads the real mouse) and before ImGui::NewFrame.
+void script_input(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err) {
+  ImGuiIO& io = ImGui::GetIO();
+  io.MousePos = p.mouse;
+  io.MouseDown[0] = p.mouse_down;
+  if (p.done()) return;
+  const ScriptStep& s = p.steps[p.next];
+  auto finish = [&p] {
+    ++p.next;
+    p.phase = 0;
+  };
+  auto fail = [&](const std::string& why) {
+    err << "attiscope gui: script line " << s.line << ": " << why << "\n";
+    p.failed = true;
+    p.next = p.steps.size();
+  };
+  if (s.op == "frames") {
+    if (++p.phase >= std::max(1, std::atoi(s.arg.c_str()))) finish();
+  } else if (s.op == "click") {
+    if (p.phase == 0) {
+      auto it = ui.widgets.find(s.arg);
+      if (it == ui.widgets.end()) return fail("no widget named '" + s.arg + "' on screen");
+      const ImVec4 r = it->second;
+      p.mouse = ImVec2(0.5f * (r.x + r.z), 0.5f * (r.y + r.w));
+    } else if (p.phase == 1) {
+      p.mouse_down = true;
+    } else if (p.phase == 2) {
+      p.mouse_down = false;
+    }
+    io.MousePos = p.mouse;
+    io.MouseDown[0] = p.mouse_down;
+    if (++p.phase > 3) finish();
+  } else if (s.op == "type") {
+    for (unsigned char c : s.arg) io.AddInputCharacter(c);
+    finish();
+  } else if (s.op == "key") {
+    const KeySpec k = parse_key_spec(s.arg).value();
+    const bool down = p.phase == 0;
+    io.KeysDown[k.key] = down;
+    io.KeyCtrl = down && k.ctrl;
+    io.KeyShift = down && k.shift;
+    io.KeyAlt = down && k.alt;
+    if (++p.phase > 1) finish();
+  } else if (s.op == "clipboard") {
+    glfwSetClipboardString(window, s.arg.c_str());
+    finish();
+  } else if (s.op == "resize") {
+    int w = 0, h = 0;
+    if (std::sscanf(s.arg.c_str(), "%d %d", &w, &h) != 2 || w < 1 || h < 1) return fail("resize needs W H");
+    if (p.phase == 0) glfwSetWindowSize(window, w, h);
+    if (++p.phase > 3) finish();
+  }
+  // dump, screenshot and quit act after the frame is drawn (script_after_draw).
+}
+
+void script_after_draw(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err) {
+  if (p.done()) return;
+  const ScriptStep& s = p.steps[p.next];
+  if (s.op == "dump") {
+    std::ofstream out(s.arg);
+    out << dump_json(ui, window).dump(2) << "\n";
+    if (!out) {
+      err << "attiscope gui: script line " << s.line << ": cannot write " << s.arg << "\n";
+      p.failed = true;
+    }
+    ++p.next;
+  } else if (s.op == "screenshot") {
+    if (!write_screenshot(window, s.arg)) {
+      err << "attiscope gui: script line " << s.line << ": cannot write " << s.arg << "\n";
+      p.failed = true;
+    }
+    ++p.next;
+  } else if (s.op == "quit") {
+    glfwSetWindowShouldClose(window, GLFW_TRUE);
+    ++p.next;
+  }
+}
+
+/// Seconds since this process started (from /proc/self/stat), or a negative number.
+double seconds_since_process_start() {
+  std::ifstream stat("/proc/self/stat");
+  std::string text((std::istreambuf_iterator<char>(stat)), std::istreambuf_iterator<char>());
+  const auto close = text.rfind(')');
+  if (close == std::string::npos) return -1.0;
+  std::istringstream fields(text.substr(close + 2));
+  std::string f;
+  unsigned long long start_ticks = 0;
+  for (int i = 3; i <= 22 && fields >> f; ++i)
+    if (i == 22) start_ticks = std::stoull(f);
+  timespec now{};
+  clock_gettime(CLOCK_BOOTTIME, &now);
+  const double ticks = static_cast<double>(sysconf(_SC_CLK_TCK));
+  return static_cast<double>(now.tv_sec) + static_cast<double>(now.tv_nsec) * 1e-9 -
+         static_cast<double>(start_ticks) / ticks;
+}
+
+double percentile(std::vector<double> v, double p) {
+  if (v.empty()) return 0.0;
+  std::sort(v.begin(), v.end());
+  const std::size_t i =
+      std::min(v.size() - 1, static_cast<std::size_t>(std::ceil(p * static_cast<double>(v.size()))) - 1);
+  return v[i];
+}
+
+double seconds(Clock::time_point a, Clock::time_point b) {
+  return std::chrono::duration<double>(b - a).count();
+}
+
+/// CPU seconds used so far by the whole process (every llvmpipe thread) or this thread.
+double cpu_seconds(clockid_t which) {
+  timespec t{};
+  clock_gettime(which, &t);
+  return static_cast<double>(t.tv_sec) + static_cast<double>(t.tv_nsec) * 1e-9;
+}
+
+/// Text and frames are drawn at whole pixels, so the font atlas needs no filtering; nearest
+/// sampling is cheaper per pixel on llvmpipe and looks the same.
+void nearest_font_filter() {
+  const auto texture = static_cast<GLuint>(reinterpret_cast<std::uintptr_t>(ImGui::GetIO().Fonts->TexID));
+  glBindTexture(GL_TEXTURE_2D, texture);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
+  glBindTexture(GL_TEXTURE_2D, 0);
+}
+
+}  // namespace
+
+int run_window(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  const Clock::time_point entered = Clock::now();
+  WindowOptions opt;
+  bool help = false;
+  if (auto e = parse_options(args, &opt, &help)) {
+    err << "attiscope gui: " << *e << "\n" << kWindowHelp;
+    return 2;
+  }
+  if (help) {
+    out << kWindowHelp;
+    return 0;
+  }
+  ScriptPlayer player;
+  if (opt.script_path) {
+    std::ifstream in(*opt.script_path);
+    if (!in) {
+      err << "attiscope gui: cannot read script " << *opt.script_path << "\n";
+      return 2;
+    }
+    std::stringstream text;
+    text << in.rdbuf();
+    auto steps = parse_script(text.str());
+    if (!steps) {
+      err << "attiscope gui: " << *opt.script_path << ": " << steps.error().describe() << "\n";
+      return 2;
+    }
+    player.steps = steps.value();
+  }
+  for (const std::string& f : opt.files) {
+    err << "attiscope gui: not opening " << f
+        << ": opening logs and convention files from the command line is not built yet\n";
+  }
+  const bool driven = opt.script_path.has_value() || opt.bench_frames > 0;
+  // Scripts save settings like a person's session would (tests point XDG_CONFIG_HOME at a
+  // temporary folder); the benchmark leaves them alone.
+  const bool saves = opt.bench_frames == 0;
+
+  const std::string dir = config_dir().value_or("");
+  std::string warning;
+  Settings settings = load_settings(dir, &warning);
+  if (!warning.empty()) err << "attiscope gui: " << warning << "\n";
+  SettingsStore store(dir);
+  if (opt.width > 0) {
+    settings.window_width = opt.width;
+    settings.window_height = opt.height;
+  } else if (opt.bench_frames > 0) {
+    settings.window_width = 1600;
+    settings.window_height = 900;
+  }
+
+  glfwSetErrorCallback(
+      [](int code, const char* what) { std::fprintf(stderr, "GLFW error %d: %s\n", code, what); });
+  if (!glfwInit()) {
+    err << "attiscope gui: cannot open a window (no display? set DISPLAY or run under xvfb-run)\n";
+    return 2;
+  }
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MAJOR, 3);
+  glfwWindowHint(GLFW_CONTEXT_VERSION_MINOR, 3);
+  glfwWindowHint(GLFW_OPENGL_PROFILE, GLFW_OPENGL_CORE_PROFILE);
+  glfwWindowHint(GLFW_OPENGL_FORWARD_COMPAT, GLFW_TRUE);
+  glfwWindowHint(GLFW_SCALE_TO_MONITOR, GLFW_TRUE);
+  GLFWwindow* window =
+      glfwCreateWindow(settings.window_width, settings.window_height, "attiscope", nullptr, nullptr);
+  if (!window) {
+    glfwTerminate();
+    err << "attiscope gui: cannot create an OpenGL 3.3 core window\n";
+    return 2;
+  }
+  glfwMakeContextCurrent(window);
+  const double context_s = seconds(entered, Clock::now());
+  glfwSwapInterval(driven ? 0 : 1);
+  glfwSetWindowSizeLimits(window, 200, 150, GLFW_DONT_CARE, GLFW_DONT_CARE);
+
+  IMGUI_CHECKVERSION();
+  ImGui::CreateContext();
+  ImGuiIO& io = ImGui::GetIO();
+  io.IniFilename = nullptr;  // saved by us, atomically, in the config folder
+  const std::string ini_path = dir.empty() ? "" : dir + "/imgui.ini";
+  if (!ini_path.empty() && saves) {
+    std::ifstream ini(ini_path);
+    std::stringstream text;
+    text << ini.rdbuf();
+    const std::string s = text.str();
+    if (!s.empty()) ImGui::LoadIniSettingsFromMemory(s.c_str(), s.size());
+  }
+  ImGui_ImplGlfw_InitForOpenGL(window, true);
+  ImGui_ImplOpenGL3_Init("#version 330 core");
+
+  Document doc(demo_state(settings));
+  Ui ui(doc, settings);
+  ui.status = "demo pose: an invented survey aircraft";
+  ui.spinning = opt.bench_frames > 0;
+  float scale = window_scale(window, settings);
+  build_fonts(ui, scale);
+  ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
+  nearest_font_filter();
+  const double fonts_s = seconds(entered, Clock::now());
+  views_init();
+
+  int frames_left = kFramesAfterEvent;
+  bool first_frame = true;
+  double first_frame_s = 0.0, first_frame_process_s = 0.0;
+  std::vector<double> frame_times, frame_cpu, ui_cpu, imgui_draw_wall;
+  double previous_cpu = 0.0;
+  int last_vertices = 0;
+  Clock::time_point last_frame = Clock::now();
+  Clock::time_point previous_start = last_frame;
+  int frame_index = 0;
+  while (!glfwWindowShouldClose(window)) {
+    const double now_s = seconds(entered, Clock::now());
+    if (driven || frames_left > 0) {
+      glfwPollEvents();
+    } else if (ui.spinning) {
+      glfwWaitEventsTimeout(kAnimationWaitS);  // the animation's pace: at most about 60 frames a second
+    } else {
+      const double due = store.seconds_until_due(now_s);
+      if (due >= 0.0) {
+        glfwWaitEventsTimeout(std::max(due, kAnimationWaitS));
+      } else {
+        glfwWaitEvents();
+      }
+      frames_left = kFramesAfterEvent;
+    }
+    if (glfwWindowShouldClose(window)) break;
+    const float wanted = window_scale(window, settings);
+    if (ui.rebuild_fonts || std::abs(wanted - scale) > 1e-3f) {
+      scale = wanted;
+      ImGui_ImplOpenGL3_DestroyFontsTexture();
+      build_fonts(ui, scale);
+      ImGui_ImplOpenGL3_CreateFontsTexture();
+      nearest_font_filter();
+      ui.rebuild_fonts = false;
+    }
+
+    const Clock::time_point start = Clock::now();
+    const double start_cpu = cpu_seconds(CLOCK_PROCESS_CPUTIME_ID);
+    const double start_thread = cpu_seconds(CLOCK_THREAD_CPUTIME_ID);
+    ImGui_ImplOpenGL3_NewFrame();
+    ImGui_ImplGlfw_NewFrame();
+    if (opt.script_path) script_input(player, ui, window, err);
+    ImGui::NewFrame();
+    ui.widgets.clear();
+    draw_panels(ui);
+    handle_shortcuts(ui);
+    if (ui.spinning) {
+      // The spin: a steady turn about the body's z axis, one undo step for the whole spin.
+      const double dt = opt.bench_frames > 0 ? 1.0 / 60.0 : std::min(0.1, seconds(last_frame, start));
+      if (!doc.in_motion()) doc.begin_motion("spin");
+      doc.move_pose(doc.pose() * elementary_rotation(Axis::Z, kSpinRadPerS * dt));
+    }
+    last_frame = start;
+    ImGui::Render();
+    last_vertices = ImGui::GetDrawData()->TotalVtxCount;
+    const double ui_thread = cpu_seconds(CLOCK_THREAD_CPUTIME_ID) - start_thread;
+
+    int fw = 0, fh = 0;
+    glfwGetFramebufferSize(window, &fw, &fh);
+    glViewport(0, 0, fw, fh);
+    const ImVec4 panel = ImGui::GetStyle().Colors[ImGuiCol_WindowBg];
+    glClearColor(panel.x, panel.y, panel.z, 1.0f);
+    glClear(GL_COLOR_BUFFER_BIT);
+    const Clock::time_point draw_start = Clock::now();
+    // The 3D views first, into their regions (the Scene and Gimbal panels have no
+    // background), so ImGui's popups and tooltips stay on top of them.
+    views_draw(ui);
+    ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
+    if (opt.bench_frames > 0) glFinish();  // so the ImGui draw's own cost can be reported
+    const double draw_wall = seconds(draw_start, Clock::now());
+    if (opt.script_path) script_after_draw(player, ui, window, err);
+    glfwSwapBuffers(window);
+
+    if (first_frame) {
+      glFinish();
+      first_frame_s = seconds(entered, Clock::now());
+      first_frame_process_s = seconds_since_process_start();
+      first_frame = false;
+    }
+    if (opt.bench_frames > 0) {
+      if (frame_index > 0) {
+        frame_times.push_back(seconds(previous_start, start) * 1e3);
+        frame_cpu.push_back((start_cpu - previous_cpu) * 1e3);
+      }
+      ui_cpu.push_back(ui_thread * 1e3);
+      imgui_draw_wall.push_back(draw_wall * 1e3);
+      previous_start = start;
+      previous_cpu = start_cpu;
+      if (++frame_index > opt.bench_frames) glfwSetWindowShouldClose(window, GLFW_TRUE);
+    }
+    if (opt.script_path && player.done()) glfwSetWindowShouldClose(window, GLFW_TRUE);
+
+    if (ui.settings_changed) {
+      store.changed(settings, now_s);
+      ui.settings_changed = false;
+    }
+    if (saves) {
+      store.save_if_due(seconds(entered, Clock::now()));
+      if (io.WantSaveIniSettings && !ini_path.empty()) {
+        write_file_atomically(ini_path, ImGui::SaveIniSettingsToMemory());
+        io.WantSaveIniSettings = false;
+      }
+    }
+    if (doc.changed()) {
+      // One more frame so every card shows the change; while spinning the pace is the timer's.
+      if (!ui.spinning) frames_left = std::max(frames_left, 1);
+      doc.clear_changed();
+    } else if (frames_left > 0) {
+      --frames_left;
+    }
+  }
+
+  if (saves) {
+    int ww = 0, wh = 0;
+    glfwGetWindowSize(window, &ww, &wh);
+    if (ww != settings.window_width || wh != settings.window_height) {
+      settings.window_width = ww;
+      settings.window_height = wh;
+      store.changed(settings, 0.0);
+    }
+    store.flush();
+    if (!ini_path.empty()) write_file_atomically(ini_path, ImGui::SaveIniSettingsToMemory());
+  }
+  if (opt.bench_frames > 0) {
+    char line[320];
+    std::snprintf(line, sizeof line,
+                  "frames %zu at %dx%d: median %.2f ms, p95 %.2f ms; first frame %.1f ms after entering the "
+                  "window code, %.0f ms after process start\n",
+                  frame_times.size(), settings.window_width, settings.window_height,
+                  percentile(frame_times, 0.5), percentile(frame_times, 0.95), first_frame_s * 1e3,
+                  first_frame_process_s * 1e3);
+    out << line;
+    std::snprintf(
+        line, sizeof line,
+        "  per frame: process CPU median %.2f ms (all threads); UI build (NewFrame..Render) median %.2f "
+        "ms; ImGui draw to glFinish median %.2f ms; %d ImGui vertices\n",
+        percentile(frame_cpu, 0.5), percentile(ui_cpu, 0.5), percentile(imgui_draw_wall, 0.5), last_vertices);
+    out << line;
+    std::snprintf(
+        line, sizeof line,
+        "  start-up: window and GL context %.1f ms, fonts and shaders %.1f ms, first frame %.1f ms\n",
+        context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
+    out << line;
+  }
+  views_shutdown();
+  ImGui_ImplOpenGL3_Shutdown();
+  ImGui_ImplGlfw_Shutdown();
+  ImGui::DestroyContext();
+  glfwDestroyWindow(window);
+  glfwTerminate();
+  return player.failed ? 2 : 0;
+}
+
+}  // namespace attiscope::gui
