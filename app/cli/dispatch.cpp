@@ -20,6 +20,8 @@ const Subcommand kSubcommands[] = {
     {"render", "headless PNG of the body in a pose", run_render},
     {"find", "the conventions under which two texts are one rotation", run_find},
     {"convention", "check a house convention file and show what it means", run_convention},
+    {"compare", "relative rotation, angle, per-axis error; mean and spread", run_compare},
+    {"mount", "mount check: nominal vs measured, or a solve from vector pairs", run_mount},
 };
 
 void print_usage(std::ostream& os) {

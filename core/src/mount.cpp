@@ -1,7 +1,9 @@
 // mount.cpp: axis-aligned mounts in words, other readings of a measured value, the check.
 #include "attiscope/core/mount.hpp"
 
+#include <Eigen/Geometry>
 #include <algorithm>
+#include <cassert>
 #include <cctype>
 #include <cmath>
 #include <cstdio>

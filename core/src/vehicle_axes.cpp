@@ -1,6 +1,9 @@
 // vehicle_axes.cpp: vehicle axis names and turns said in words.
 #include "attiscope/core/vehicle_axes.hpp"
 
+#include <Eigen/Geometry>
+#include <Eigen/LU>
+#include <cassert>
 #include <cctype>
 #include <cmath>
 #include <cstdio>

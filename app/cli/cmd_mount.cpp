@@ -1,0 +1,422 @@
+// cmd_mount.cpp: `attiscope mount`: the mount check. A nominal mount (from the drawing)
+// against a measured one (a calibration value, or solved from vector pairs), with the error
+// in vehicle words, pass or fail against a tolerance, and a guess at the cause.
+#include <cmath>
+#include <cstdio>
+#include <nlohmann/json.hpp>
+#include <ostream>
+
+#include "attiscope/core/compare.hpp"
+#include "attiscope/core/mount.hpp"
+#include "attiscope/core/mount_setup.hpp"
+#include "attiscope/core/wahba.hpp"
+#include "cli/cli.hpp"
+#include "cli/pose_input.hpp"
+
+namespace attiscope::cli {
+
+namespace {
+
+constexpr double kDeg = 180.0 / M_PI;
+
+const char* kMountHelp =
+    "usage: attiscope mount --nominal TEXT --measured TEXT [--tolerance DEG] [options]\n"
+    "       attiscope mount --vectors FILE [--nominal TEXT] [--tolerance DEG] [options]\n"
+    "       attiscope mount --list-aligned [--vehicle CODE]\n"
+    "\n"
+    "Checks a sensor mount. A mount is vehicle_R_sensor: it maps sensor-frame coordinates into\n"
+    "vehicle-frame coordinates (its columns are the sensor axes in vehicle axes).\n"
+    "\n"
+    "  --nominal TEXT     the mount on the drawing: numbers (read with --as, or 4 = quaternion\n"
+    "                     w x y z, 9 = matrix rows, 3 = Euler angles), or words naming two sensor\n"
+    "                     axes: \"sensor x toward vehicle aft, sensor z down\" (see --list-aligned)\n"
+    "  --trim \"A B C\"     small turns in degrees about the vehicle's x, y, z applied to the nominal\n"
+    "  --measured TEXT    the mount as calibrated (same readings as --nominal)\n"
+    "  --nominal-direction, --measured-direction  sensor-to-vehicle (default) or\n"
+    "                     vehicle-to-sensor: which way round the value was written\n"
+    "  --vectors FILE     solve the measured mount from vector pairs: each line\n"
+    "                     `sx sy sz vx vy vz [w]`, a direction in sensor axes, the same direction in\n"
+    "                     vehicle axes, and a weight (default 1); '#' starts a comment; - is stdin\n"
+    "  --tolerance DEG    largest error that passes (default 0.5); exit 1 beyond it\n"
+    "  --vehicle CODE     where the vehicle's x, y, z point: FRD (default), FLU, ... letters from\n"
+    "                     F B R L U D\n"
+    "  --setup FILE       read the nominal, measured, tolerance and vehicle axes from a mount\n"
+    "                     setup file (TOML); options given here override it\n"
+    "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
+    "  --list-aligned     print the 24 axis-aligned mounts and their names\n"
+    "\n"
+    "The vector solve is the SVD solution of Wahba's problem (Markley 1988), cross-checked with\n"
+    "Davenport's q-method and TRIAD (Shuster & Oh 1981). Vectors too close to parallel are refused,\n"
+    "saying which turn they cannot fix: one resting vector (gravity) gives tilt, never heading.\n"
+    "An error near 90, 120 or 180 degrees is most likely a convention or direction mistake: the\n"
+    "check re-reads the measured value (inverse, transposed, quaternion layout, Euler order,\n"
+    "units) and says which reading would explain it.\n"
+    "\n"
+    "Exit codes: 0 within tolerance (or no nominal given), 1 beyond it, 2 bad input or a refused\n"
+    "(unobservable) solve.\n"
+    "\n"
+    "Examples (invented):\n"
+    "  attiscope mount --nominal \"sensor x toward vehicle aft, sensor z down\" \\\n"
+    "                  --measured \"0.0087 0.0002 -0.0001 0.9999\" --as quat-wxyz --tolerance 1.5\n"
+    "  attiscope mount --vectors rover_tilts.txt --nominal \"x forward, z down\" --json\n"
+    "\n";
+
+nlohmann::json quat_json(const Rotation& r) {
+  const Eigen::Quaterniond q = r.quaternion();
+  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
+}
+
+nlohmann::json matrix_json(const Rotation& r) {
+  const Eigen::Matrix3d m = r.matrix();
+  nlohmann::json rows = nlohmann::json::array();
+  for (int i = 0; i < 3; ++i) rows.push_back({m(i, 0), m(i, 1), m(i, 2)});
+  return rows;
+}
+
+nlohmann::json vec_json(const Eigen::Vector3d& v) {
+  return nlohmann::json::array({v.x(), v.y(), v.z()});
+}
+
+std::string fmt(double v, int precision) {
+  if (v == 0.0) v = 0.0;
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*g", precision, v);
+  return buf;
+}
+
+std::string quat_text(const Rotation& r, int p) {
+  const Eigen::Quaterniond q = r.quaternion();
+  return "w " + fmt(q.w(), p) + "  x " + fmt(q.x(), p) + "  y " + fmt(q.y(), p) + "  z " + fmt(q.z(), p);
+}
+
+int bad(Streams io, const std::string& message) {
+  io.err << "attiscope mount: " << message << "\n";
+  return kExitBadInput;
+}
+
+// A mount read from an option: the rotation (vehicle_R_sensor), how it was read, and the
+// other readings the classifier may try.
+struct MountInput {
+  Rotation vehicle_R_sensor;
+  std::string description;
+  std::vector<AlternativeReading> alternatives;
+  std::vector<std::string> warnings;
+};
+
+Expected<bool> parse_direction(const CommonOptions& o, const std::string& option, bool* inverted) {
+  *inverted = false;
+  if (auto d = o.last(option)) {
+    if (*d == "vehicle-to-sensor") {
+      *inverted = true;
+    } else if (*d != "sensor-to-vehicle") {
+      return Error{option + " is sensor-to-vehicle or vehicle-to-sensor, got '" + *d + "'"};
+    }
+  }
+  return true;
+}
+
+Expected<MountInput> read_mount_option(const std::string& text, const CommonOptions& o,
+                                       const VehicleAxes& names, bool inverted) {
+  MountInput m;
+  if (looks_like_mount_words(text)) {
+    auto r = parse_axis_aligned_mount(text, names);
+    if (!r) return r.error();
+    m.vehicle_R_sensor = inverted ? r.value().inverse() : r.value();
+    m.description = "words \"" + text + "\"";
+    m.alternatives = inverse_only(m.vehicle_R_sensor,
+                                  "the other direction (the words describe the vehicle in sensor axes)");
+    return m;
+  }
+  auto pose = read_pose_text(text, o);
+  if (!pose) return pose.error();
+  m.vehicle_R_sensor = inverted ? pose.value().rotation.inverse() : pose.value().rotation;
+  m.description =
+      pose.value().reading + (inverted ? ", vehicle-to-sensor (inverted)" : ", sensor-to-vehicle");
+  m.alternatives = alternative_readings(text, pose.value().kind, pose.value().options, inverted);
+  m.warnings = pose.value().warnings;
+  return m;
+}
+
+nlohmann::json turns_json(const std::array<NamedTurn, 3>& turns) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const NamedTurn& t : turns) {
+    out.push_back({{"axis", std::string(1, "xyz"[t.axis])},
+                   {"name", t.turn_name},
+                   {"angle_deg", t.angle_rad * kDeg},
+                   {"sense", t.sense}});
+  }
+  return out;
+}
+
+int list_aligned(const VehicleAxes& names, const CommonOptions& o, Streams io) {
+  const std::vector<AxisAlignedMount> all = axis_aligned_mounts(names);
+  if (o.json) {
+    nlohmann::json list = nlohmann::json::array();
+    for (const AxisAlignedMount& m : all) {
+      list.push_back({{"name", m.name},
+                      {"quaternion", quat_json(m.vehicle_R_sensor)},
+                      {"matrix", matrix_json(m.vehicle_R_sensor)}});
+    }
+    io.out << nlohmann::json{{"vehicle_axes", names.code()}, {"mounts", list}}.dump(2) << "\n";
+    return kExitOk;
+  }
+  io.out << "The 24 axis-aligned mounts, vehicle axes " << names.code()
+         << " (vehicle_R_sensor quaternion):\n";
+  for (std::size_t i = 0; i < all.size(); ++i) {
+    io.out << (i + 1 < 10 ? " " : "") << i + 1 << "  " << all[i].name << "\n      "
+           << quat_text(all[i].vehicle_R_sensor, 6) << "\n";
+  }
+  return kExitOk;
+}
+
+}  // namespace
+
+int run_mount(const std::vector<std::string>& args, Streams io) {
+  CommonOptions o;
+  if (auto err = parse_common(args,
+                              {{"--nominal", true},
+                               {"--measured", true},
+                               {"--vectors", true},
+                               {"--tolerance", true},
+                               {"--vehicle", true},
+                               {"--trim", true},
+                               {"--nominal-direction", true},
+                               {"--measured-direction", true},
+                               {"--setup", true},
+                               {"--save", true},
+                               {"--list-aligned", false}},
+                              &o)) {
+    return bad(io, *err);
+  }
+  if (o.help) {
+    io.out << kMountHelp << common_options_help() << "\n" << kMountCaution << "\n";
+    return kExitOk;
+  }
+  if (!o.positional.empty()) {
+    return bad(io, "unexpected '" + o.positional.front() +
+                       "': give mounts with --nominal and --measured (see --help)");
+  }
+  MountSetup setup;
+  std::vector<std::string> warnings;
+  if (auto path = o.last("--setup")) {
+    auto s = load_mount_setup(*path, &warnings);
+    if (!s) return bad(io, *path + ": " + s.error().describe());
+    setup = s.value();
+  }
+  VehicleAxes names = setup.vehicle_axes;
+  if (auto code = o.last("--vehicle")) {
+    auto v = parse_vehicle_axes(*code);
+    if (!v) return bad(io, "--vehicle: " + v.error().describe());
+    names = v.value();
+  }
+  setup.vehicle_axes = names;
+  if (o.has("--list-aligned")) return list_aligned(names, o, io);
+
+  double tolerance_deg = setup.tolerance_deg;
+  if (auto t = o.last("--tolerance")) {
+    auto v = parse_number_option("--tolerance", *t, true);
+    if (!v) return bad(io, v.error().describe());
+    tolerance_deg = v.value();
+  }
+  setup.tolerance_deg = tolerance_deg;
+
+  // The nominal mount.
+  std::optional<MountInput> nominal;
+  if (auto text = o.last("--nominal")) {
+    bool inverted = false;
+    auto d = parse_direction(o, "--nominal-direction", &inverted);
+    if (!d) return bad(io, d.error().describe());
+    auto m = read_mount_option(*text, o, names, inverted);
+    if (!m) return bad(io, "--nominal: " + m.error().describe());
+    nominal = m.value();
+    setup.nominal = nominal->vehicle_R_sensor;
+    setup.nominal_words = looks_like_mount_words(*text) && !inverted ? *text : "";
+    setup.trim_deg = Eigen::Vector3d::Zero();
+  } else if (setup.nominal) {
+    nominal = MountInput{*setup.nominal, "from the setup file", {}, {}};
+  }
+  if (auto trim = o.last("--trim")) {
+    if (!nominal) return bad(io, "--trim needs a --nominal mount to trim");
+    auto numbers = scan_numbers(*trim);
+    if (!numbers) return bad(io, "--trim: " + numbers.error().describe());
+    if (numbers.value().size() != 3)
+      return bad(io, "--trim needs three angles in degrees (about vehicle x, y, z)");
+    Eigen::Vector3d t;
+    for (int i = 0; i < 3; ++i) t(i) = numbers.value()[static_cast<std::size_t>(i)].value;
+    nominal->vehicle_R_sensor = trimmed_mount(nominal->vehicle_R_sensor, t / kDeg);
+    nominal->description += ", trimmed by (" + fmt(t(0), 6) + ", " + fmt(t(1), 6) + ", " + fmt(t(2), 6) +
+                            ") degrees about vehicle x, y, z";
+    setup.nominal = nominal->vehicle_R_sensor;
+    if (!setup.nominal_words.empty()) setup.trim_deg = t;
+  }
+  if (nominal) {
+    for (const std::string& w : nominal->warnings) warnings.push_back("nominal: " + w);
+  }
+
+  // The measured mount.
+  if (o.has("--measured") && o.has("--vectors")) return bad(io, "give --measured or --vectors, not both");
+  std::optional<MountInput> measured;
+  std::optional<VectorSolve> solve;
+  if (auto text = o.last("--measured")) {
+    bool inverted = false;
+    auto d = parse_direction(o, "--measured-direction", &inverted);
+    if (!d) return bad(io, d.error().describe());
+    auto m = read_mount_option(*text, o, names, inverted);
+    if (!m) return bad(io, "--measured: " + m.error().describe());
+    measured = m.value();
+    for (const std::string& w : measured->warnings) warnings.push_back("measured: " + w);
+  } else if (auto path = o.last("--vectors")) {
+    auto file = read_input_file(*path, io.in);
+    if (!file) return bad(io, file.error().describe());
+    auto pairs = parse_vector_pairs(file.value());
+    if (!pairs) return bad(io, *path + ": " + pairs.error().describe());
+    auto s = solve_mount_from_vectors(pairs.value(), names);
+    if (!s) return bad(io, *path + ": " + s.error().describe());
+    solve = s.value();
+    for (const std::string& w : solve->warnings) warnings.push_back(w);
+    if (solve->vehicle_R_sensor) {
+      measured =
+          MountInput{*solve->vehicle_R_sensor,
+                     "solved from " + std::to_string(pairs.value().size()) + " vector pairs in " + *path,
+                     inverse_only(*solve->vehicle_R_sensor,
+                                  "the vector columns swapped (vehicle vector first, then sensor vector)"),
+                     {}};
+    }
+  } else if (setup.measured) {
+    measured = MountInput{*setup.measured, "from the setup file", {}, {}};
+  }
+  if (!measured && !solve) {
+    return bad(io, "give the measured mount with --measured TEXT or --vectors FILE (see --help)");
+  }
+
+  std::optional<MountCheck> check;
+  if (nominal && measured) {
+    check = check_mount(nominal->vehicle_R_sensor, measured->vehicle_R_sensor, tolerance_deg / kDeg, names,
+                        measured->alternatives);
+  }
+  const bool refused = solve && !solve->vehicle_R_sensor;
+
+  if (auto path = o.last("--save")) {
+    if (measured) {
+      setup.measured = measured->vehicle_R_sensor;
+      setup.measured_note = measured->description;
+    }
+    auto saved = save_mount_setup(*path, setup);
+    if (!saved) return bad(io, "--save: " + saved.error().describe());
+  }
+
+  if (o.json) {
+    nlohmann::json j;
+    j["vehicle_axes"] = names.code();
+    j["mount"] = measured ? nlohmann::json{{"quaternion", quat_json(measured->vehicle_R_sensor)},
+                                           {"matrix", matrix_json(measured->vehicle_R_sensor)},
+                                           {"direction", "sensor_to_vehicle"},
+                                           {"source", measured->description}}
+                          : nlohmann::json();
+    j["nominal"] = nominal ? nlohmann::json{{"quaternion", quat_json(nominal->vehicle_R_sensor)},
+                                            {"matrix", matrix_json(nominal->vehicle_R_sensor)},
+                                            {"source", nominal->description}}
+                           : nlohmann::json();
+    j["tolerance_deg"] = tolerance_deg;
+    if (check) {
+      j["error_deg"] = check->error_rad * kDeg;
+      j["error_axis_vehicle"] = vec_json(check->error_axis_vehicle);
+      j["error_quaternion_vehicle"] = quat_json(check->error_vehicle);
+      j["error_words"] = check->error_words;
+      j["error_turns"] = turns_json(check->error_turns);
+      j["within_tolerance"] = check->within_tolerance;
+      j["verdict"] = verdict_name(check->verdict);
+      j["verdict_text"] = check->verdict_text;
+      nlohmann::json ex = nlohmann::json::array();
+      for (const Explanation& e : check->explanations)
+        ex.push_back({{"reading", e.label}, {"error_deg", e.error_rad * kDeg}});
+      j["explanations"] = ex;
+      j["nearest_reorientation_deg"] = check->nearest_reorientation_rad * kDeg;
+    } else {
+      j["error_deg"] = nullptr;
+      j["within_tolerance"] = nullptr;
+    }
+    if (solve) {
+      nlohmann::json res = nlohmann::json::array();
+      for (double r : solve->residuals_rad) res.push_back(r * kDeg);
+      j["residuals_deg"] = res;
+      j["separation_deg"] = solve->observability.separation_rad * kDeg;
+      if (solve->vehicle_R_sensor) {
+        j["solver"] = {
+            {"method", "svd"},
+            {"loss", solve->loss},
+            {"davenport_difference_deg", solve->davenport_difference_rad * kDeg},
+            {"triad", solve->triad ? nlohmann::json{{"quaternion", quat_json(*solve->triad)},
+                                                    {"difference_deg", solve->triad_difference_rad * kDeg},
+                                                    {"lines", solve->triad_lines}}
+                                   : nlohmann::json()}};
+      }
+      j["unobservable"] = refused ? nlohmann::json(solve->observability.sentence) : nlohmann::json();
+      if (refused) {
+        j["free_axis_vehicle"] = vec_json(solve->observability.free_axis_vehicle);
+        j["free_axis_sensor"] = vec_json(solve->observability.free_axis_sensor);
+      }
+    } else {
+      j["residuals_deg"] = nullptr;
+      j["unobservable"] = nullptr;
+    }
+    j["warnings"] = warnings;
+    j["caution"] = kMountCaution;
+    io.out << j.dump(2) << "\n";
+  } else {
+    const int p = o.precision;
+    io.out << "mount check   vehicle axes " << names.code() << " (x " << names.direction_word(0) << ", y "
+           << names.direction_word(1) << ", z " << names.direction_word(2)
+           << "); a mount is vehicle_R_sensor (sensor coordinates -> vehicle coordinates)\n";
+    if (nominal) {
+      io.out << "nominal       " << quat_text(nominal->vehicle_R_sensor, p) << "\n              "
+             << nominal->description << "\n";
+    }
+    if (measured) {
+      io.out << "measured      " << quat_text(measured->vehicle_R_sensor, p) << "\n              "
+             << measured->description << "\n";
+    }
+    if (solve && solve->vehicle_R_sensor) {
+      io.out << "solver        SVD (Markley 1988); q-method differs by "
+             << fmt(solve->davenport_difference_rad * kDeg, 3) << " degrees";
+      if (solve->triad) {
+        io.out << "; TRIAD on pairs " << solve->triad_lines[0] << " and " << solve->triad_lines[1]
+               << " differs by " << fmt(solve->triad_difference_rad * kDeg, 3) << " degrees";
+      }
+      io.out << "\nresiduals    ";
+      for (double r : solve->residuals_rad) io.out << " " << fmt(r * kDeg, 3);
+      io.out << " degrees\n";
+    }
+    if (refused) io.out << "REFUSED       " << solve->observability.sentence << "\n";
+    if (check) {
+      io.out << "error         " << check->error_words << "\n";
+      if (check->error_rad <= kSmallSplitLimitRad) {
+        io.out << "              split:";
+        for (const NamedTurn& t : check->error_turns) {
+          io.out << "  " << t.turn_name << " " << fmt(t.angle_rad * kDeg, 3)
+                 << (t.sense.empty() ? "" : " (" + t.sense + ")");
+        }
+        io.out << " degrees (small-angle split about the vehicle's axes)\n";
+      }
+      io.out << "tolerance     " << fmt(tolerance_deg, p) << " degrees\n";
+      io.out << "result        " << (check->within_tolerance ? "PASS" : "FAIL") << ": " << check->verdict_text
+             << "\n";
+      for (std::size_t i = 1; i < check->explanations.size(); ++i) {
+        io.out << "              also explained by " << check->explanations[i].label << " ("
+               << fmt(check->explanations[i].error_rad * kDeg, 3) << " degrees)\n";
+      }
+    } else if (measured) {
+      io.out << "result        no nominal mount given: nothing to check against (use --nominal)\n";
+    }
+    for (const std::string& w : warnings) io.out << "warning: " << w << "\n";
+    io.out << "\n" << kMountCaution << "\n";
+  }
+  if (refused) {
+    io.err << "attiscope mount: refused: " << solve->observability.sentence << "\n";
+    return kExitBadInput;
+  }
+  if (check && !check->within_tolerance) return kExitCheckFailed;
+  return kExitOk;
+}
+
+}  // namespace attiscope::cli
