@@ -257,6 +257,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   if (o.has("--measured") && o.has("--vectors")) return bad(io, "give --measured or --vectors, not both");
   std::optional<MountInput> measured;
   std::optional<VectorSolve> solve;
+  std::vector<VectorPair> vector_pairs;
   if (auto text = o.last("--measured")) {
     bool inverted = false;
     auto d = parse_direction(o, "--measured-direction", &inverted);
@@ -270,6 +271,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
     if (!file) return bad(io, file.error().describe());
     auto pairs = parse_vector_pairs(file.value());
     if (!pairs) return bad(io, *path + ": " + pairs.error().describe());
+    vector_pairs = pairs.value();
     auto s = solve_mount_from_vectors(pairs.value(), names);
     if (!s) return bad(io, *path + ": " + s.error().describe());
     solve = s.value();
@@ -412,7 +414,10 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
     io.out << "\n" << kMountCaution << "\n";
   }
   if (refused) {
-    io.err << "attiscope mount: refused: " << solve->observability.sentence << "\n";
+    std::string lines;
+    for (const VectorPair& pr : vector_pairs) lines += (lines.empty() ? "" : ", ") + std::to_string(pr.line);
+    io.err << "attiscope mount: " << *o.last("--vectors") << ": lines " << lines
+           << ": refused: " << solve->observability.sentence << "\n";
     return kExitBadInput;
   }
   if (check && !check->within_tolerance) return kExitCheckFailed;

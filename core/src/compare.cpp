@@ -91,6 +91,11 @@ Expected<MeanSpread> mean_and_spread(const std::vector<Rotation>& poses, const s
   if (!mean) return mean.error();
   MeanSpread s;
   s.mean = mean.value();
+  // The mean's sign follows the first pose, so "flipped" counts the poses whose sign is
+  // opposite to the first one's (a sign-continuous log has none).
+  if (s.mean.stored_quaternion().coeffs().dot(poses.front().stored_quaternion().coeffs()) < 0) {
+    s.mean = s.mean.negated();
+  }
   const Eigen::Quaterniond m = s.mean.stored_quaternion();
   double sum_w = 0.0, sum_w_sq = 0.0;
   for (std::size_t i = 0; i < poses.size(); ++i) {

@@ -17,6 +17,8 @@ namespace {
 constexpr double kDeg = 180.0 / M_PI;
 /// A vector shorter than this has no direction.
 constexpr double kMinVectorNorm = 1e-12;
+/// Lines closer than this are said to be one line.
+constexpr double kParallelRad = 1e-9;
 
 std::string fmt(double v, int precision = 3) {
   if (v == 0.0) v = 0.0;
@@ -196,10 +198,16 @@ Observability vector_observability(const std::vector<VectorPair>& pairs, const V
     }
     o.free_axis_sensor = s_sum.normalized();
     o.free_axis_vehicle = v_sum.normalized();
-    const std::string how = used.size() == 1
-                                ? "there is one direction only"
-                                : "all " + std::to_string(used.size()) + " directions lie within " +
-                                      fmt(o.separation_rad * kDeg, 2) + " degrees of one line";
+    std::string how;
+    if (used.size() == 1) {
+      how = "there is one direction only";
+    } else {
+      const std::string all =
+          used.size() == 2 ? "both directions" : "all " + std::to_string(used.size()) + " directions";
+      how = o.separation_rad < kParallelRad
+                ? all + " lie along one line"
+                : all + " lie within " + fmt(o.separation_rad * kDeg, 2) + " degrees of one line";
+    }
     o.sentence =
         how + ", so the turn about that line (" + vehicle_line_words(o.free_axis_vehicle, names) +
         "; sensor direction " + vec_text(o.free_axis_sensor) +

@@ -82,7 +82,7 @@ std::vector<Rotation> slerp_path(const Rotation& a, const Rotation& b, int count
 
 /// The mean of several poses and how far they spread about it.
 struct MeanSpread {
-  Rotation mean;
+  Rotation mean;  ///< stored with the sign nearer the first pose's quaternion
   /// Each input quaternion with its sign chosen so that its dot product with the mean's
   /// quaternion is >= 0 (all in the mean's hemisphere), in input order.
   std::vector<Eigen::Quaterniond> aligned;
@@ -90,7 +90,7 @@ struct MeanSpread {
   double max_rad = 0.0;            ///< the largest of angles_rad
   std::size_t max_index = 0;       ///< which pose that is (0-based)
   double rms_rad = 0.0;            ///< sqrt(sum w_i angle_i^2 / sum w_i)
-  std::size_t flipped = 0;         ///< how many input quaternions were in the other hemisphere
+  std::size_t flipped = 0;         ///< how many inputs were in the other hemisphere (sign flipped)
 };
 
 /// Mean by Markley, Cheng, Crassidis, Oshman 2007 ("Averaging Quaternions", JGCD 30(4)):
