@@ -224,17 +224,22 @@ Expected<Rotation> parse_axis_aligned_mount(std::string_view text, const Vehicle
     const auto& b = sensor_axes[static_cast<std::size_t>(j)];
     if (a && b) full[static_cast<std::size_t>(k)] = a->cross(*b);
   }
-  for (int k = 0; k < 3; ++k) {
-    const auto& given_axis = sensor_axes[static_cast<std::size_t>(k)];
-    if (!given_axis) continue;
-    const int i = (k + 1) % 3, j = (k + 2) % 3;
-    if (sensor_axes[static_cast<std::size_t>(i)] && sensor_axes[static_cast<std::size_t>(j)] &&
-        given_axis->dot(full[static_cast<std::size_t>(k)]) < 0) {
+  if (given == 3) {
+    // All three given: they must make a right-handed frame. The last one written is blamed.
+    const Eigen::Vector3d& x = *sensor_axes[0];
+    if (x.dot(sensor_axes[1]->cross(*sensor_axes[2])) < 0) {
+      int last = 0;
+      for (int k = 1; k < 3; ++k) {
+        if (columns[static_cast<std::size_t>(k)] > columns[static_cast<std::size_t>(last)]) last = k;
+      }
       return Error{std::string("these three directions make a left-handed (mirror) sensor frame: sensor ") +
-                       "xyz"[k] + " would have to point the other way",
-                   1, columns[static_cast<std::size_t>(k)]};
+                       "xyz"[last] + " would have to point the other way",
+                   1, columns[static_cast<std::size_t>(last)]};
     }
-    full[static_cast<std::size_t>(k)] = *given_axis;
+  }
+  for (int k = 0; k < 3; ++k) {
+    if (sensor_axes[static_cast<std::size_t>(k)])
+      full[static_cast<std::size_t>(k)] = *sensor_axes[static_cast<std::size_t>(k)];
   }
   return from_columns(full[0], full[1], full[2]);
 }
