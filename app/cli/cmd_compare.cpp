@@ -103,7 +103,7 @@ int run_mean(const CommonOptions& o, const std::optional<double>& tolerance_deg,
       return bad(io, path + ": " + e.describe());
     }
     for (const std::string& w : pose.value().warnings) {
-      if (poses.empty() || w.rfind("no --as given", 0) != 0)
+      if (poses.empty() || w.rfind("no reading given", 0) != 0)
         warnings.push_back("line " + std::to_string(line_no) + ": " + w);
     }
     poses.push_back(pose.value().rotation);

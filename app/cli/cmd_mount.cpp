@@ -94,15 +94,6 @@ int bad(Streams io, const std::string& message) {
   return kExitBadInput;
 }
 
-// A mount read from an option: the rotation (vehicle_R_sensor), how it was read, and the
-// other readings the classifier may try.
-struct MountInput {
-  Rotation vehicle_R_sensor;
-  std::string description;
-  std::vector<AlternativeReading> alternatives;
-  std::vector<std::string> warnings;
-};
-
 Expected<bool> parse_direction(const CommonOptions& o, const std::string& option, bool* inverted) {
   *inverted = false;
   if (auto d = o.last(option)) {
@@ -113,28 +104,6 @@ Expected<bool> parse_direction(const CommonOptions& o, const std::string& option
     }
   }
   return true;
-}
-
-Expected<MountInput> read_mount_option(const std::string& text, const CommonOptions& o,
-                                       const VehicleAxes& names, bool inverted) {
-  MountInput m;
-  if (looks_like_mount_words(text)) {
-    auto r = parse_axis_aligned_mount(text, names);
-    if (!r) return r.error();
-    m.vehicle_R_sensor = inverted ? r.value().inverse() : r.value();
-    m.description = "words \"" + text + "\"";
-    m.alternatives = inverse_only(m.vehicle_R_sensor,
-                                  "the other direction (the words describe the vehicle in sensor axes)");
-    return m;
-  }
-  auto pose = read_pose_text(text, o);
-  if (!pose) return pose.error();
-  m.vehicle_R_sensor = inverted ? pose.value().rotation.inverse() : pose.value().rotation;
-  m.description =
-      pose.value().reading + (inverted ? ", vehicle-to-sensor (inverted)" : ", sensor-to-vehicle");
-  m.alternatives = alternative_readings(text, pose.value().kind, pose.value().options, inverted);
-  m.warnings = pose.value().warnings;
-  return m;
 }
 
 nlohmann::json turns_json(const std::array<NamedTurn, 3>& turns) {
@@ -221,19 +190,19 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   setup.tolerance_deg = tolerance_deg;
 
   // The nominal mount.
-  std::optional<MountInput> nominal;
+  std::optional<MountReading> nominal;
   if (auto text = o.last("--nominal")) {
     bool inverted = false;
     auto d = parse_direction(o, "--nominal-direction", &inverted);
     if (!d) return bad(io, d.error().describe());
-    auto m = read_mount_option(*text, o, names, inverted);
+    auto m = read_mount_text(*text, pose_options(o), names, inverted);
     if (!m) return bad(io, "--nominal: " + m.error().describe());
     nominal = m.value();
     setup.nominal = nominal->vehicle_R_sensor;
     setup.nominal_words = looks_like_mount_words(*text) && !inverted ? *text : "";
     setup.trim_deg = Eigen::Vector3d::Zero();
   } else if (setup.nominal) {
-    nominal = MountInput{*setup.nominal, "from the setup file", {}, {}};
+    nominal = MountReading{*setup.nominal, "from the setup file", {}, {}};
   }
   if (auto trim = o.last("--trim")) {
     if (!nominal) return bad(io, "--trim needs a --nominal mount to trim");
@@ -255,14 +224,14 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
 
   // The measured mount.
   if (o.has("--measured") && o.has("--vectors")) return bad(io, "give --measured or --vectors, not both");
-  std::optional<MountInput> measured;
+  std::optional<MountReading> measured;
   std::optional<VectorSolve> solve;
   std::vector<VectorPair> vector_pairs;
   if (auto text = o.last("--measured")) {
     bool inverted = false;
     auto d = parse_direction(o, "--measured-direction", &inverted);
     if (!d) return bad(io, d.error().describe());
-    auto m = read_mount_option(*text, o, names, inverted);
+    auto m = read_mount_text(*text, pose_options(o), names, inverted);
     if (!m) return bad(io, "--measured: " + m.error().describe());
     measured = m.value();
     for (const std::string& w : measured->warnings) warnings.push_back("measured: " + w);
@@ -278,14 +247,14 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
     for (const std::string& w : solve->warnings) warnings.push_back(w);
     if (solve->vehicle_R_sensor) {
       measured =
-          MountInput{*solve->vehicle_R_sensor,
-                     "solved from " + std::to_string(pairs.value().size()) + " vector pairs in " + *path,
-                     inverse_only(*solve->vehicle_R_sensor,
-                                  "the vector columns swapped (vehicle vector first, then sensor vector)"),
-                     {}};
+          MountReading{*solve->vehicle_R_sensor,
+                       "solved from " + std::to_string(pairs.value().size()) + " vector pairs in " + *path,
+                       inverse_only(*solve->vehicle_R_sensor,
+                                    "the vector columns swapped (vehicle vector first, then sensor vector)"),
+                       {}};
     }
   } else if (setup.measured) {
-    measured = MountInput{*setup.measured, "from the setup file", {}, {}};
+    measured = MountReading{*setup.measured, "from the setup file", {}, {}};
   }
   if (!measured && !solve) {
     return bad(io, "give the measured mount with --measured TEXT or --vectors FILE (see --help)");

@@ -8,46 +8,17 @@
 
 namespace attiscope::cli {
 
-ExplicitReadingOptions reading_options(const CommonOptions& o) {
-  ExplicitReadingOptions ro;
-  ro.euler = o.euler;
-  ro.unit = o.unit;
-  ro.rotvec_unit = o.unit_given ? o.unit : AngleUnit::Radians;
-  return ro;
+PoseTextOptions pose_options(const CommonOptions& o) {
+  PoseTextOptions p;
+  p.as = o.as;
+  p.reading.euler = o.euler;
+  p.reading.unit = o.unit;
+  p.reading.rotvec_unit = o.unit_given ? o.unit : AngleUnit::Radians;
+  return p;
 }
 
 Expected<PoseText> read_pose_text(std::string_view text, const CommonOptions& o) {
-  PoseText out;
-  out.options = reading_options(o);
-  if (o.as) {
-    out.kind = *o.as;
-  } else {
-    auto numbers = scan_numbers(text);
-    if (!numbers) return numbers.error();
-    const std::size_t n = numbers.value().size();
-    if (n == 3) {
-      out.kind = ReadingKind::Euler;
-    } else if (n == 4) {
-      out.kind = ReadingKind::QuatWxyz;
-    } else if (n == 9) {
-      out.kind = ReadingKind::MatrixRows;
-    } else {
-      return Error{
-          "got " + std::to_string(n) +
-              " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say which "
-              "with --as",
-          1, 1};
-    }
-    out.warnings.push_back("no --as given: " + std::to_string(n) + " numbers were read as " +
-                           reading_kind_name(out.kind));
-  }
-  auto r = read_explicit(text, out.kind, out.options);
-  if (!r) return r.error();
-  out.rotation = r.value().rotation;
-  out.reading = reading_kind_name(out.kind);
-  if (out.kind == ReadingKind::Euler) out.reading += " " + o.euler.name();
-  for (const std::string& w : r.value().warnings) out.warnings.push_back(w);
-  return out;
+  return attiscope::read_pose_text(text, pose_options(o));
 }
 
 Expected<std::string> read_input_file(const std::string& path, std::istream& in) {

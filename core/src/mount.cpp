@@ -340,6 +340,30 @@ std::vector<AlternativeReading> alternative_readings(std::string_view text, Read
   return out;
 }
 
+Expected<MountReading> read_mount_text(std::string_view text, const PoseTextOptions& options,
+                                       const VehicleAxes& names, bool vehicle_to_sensor) {
+  MountReading m;
+  if (looks_like_mount_words(text)) {
+    auto r = parse_axis_aligned_mount(text, names);
+    if (!r) return r.error();
+    m.words = true;
+    m.vehicle_R_sensor = vehicle_to_sensor ? r.value().inverse() : r.value();
+    m.description =
+        "words \"" + std::string(text) + "\"" + (vehicle_to_sensor ? ", vehicle-to-sensor (inverted)" : "");
+    m.alternatives = inverse_only(m.vehicle_R_sensor,
+                                  "the other direction (the words describe the vehicle in sensor axes)");
+    return m;
+  }
+  auto pose = read_pose_text(text, options);
+  if (!pose) return pose.error();
+  m.vehicle_R_sensor = vehicle_to_sensor ? pose.value().rotation.inverse() : pose.value().rotation;
+  m.description =
+      pose.value().reading + (vehicle_to_sensor ? ", vehicle-to-sensor (inverted)" : ", sensor-to-vehicle");
+  m.alternatives = alternative_readings(text, pose.value().kind, pose.value().options, vehicle_to_sensor);
+  m.warnings = pose.value().warnings;
+  return m;
+}
+
 std::string verdict_name(MountVerdict v) {
   switch (v) {
     case MountVerdict::WithinTolerance: return "within tolerance";

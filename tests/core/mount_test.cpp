@@ -231,3 +231,36 @@ TEST(MountTest, RealMisalignmentIsNotBlamedOnAConvention) {
 
 }  // namespace
 }  // namespace attiscope
+
+namespace attiscope {
+namespace {
+
+TEST(MountTextTest, WordsNumbersAndDirection) {
+  const PoseTextOptions guess;  // no reading given: guessed by count
+  const auto words = read_mount_text("x aft, z down", guess, kFrd);
+  ASSERT_TRUE(words.ok());
+  EXPECT_TRUE(words->words);
+  EXPECT_TRUE(test::RotationNear(words->vehicle_R_sensor, elementary_rotation(Axis::Z, M_PI), 1e-15));
+  const auto quat = read_mount_text("0.9 0.3 0.2 0.1", guess, kFrd);
+  ASSERT_TRUE(quat.ok());
+  EXPECT_FALSE(quat->words);
+  EXPECT_FALSE(quat->warnings.empty());  // the guess is said
+  const auto inverted = read_mount_text("0.9 0.3 0.2 0.1", guess, kFrd, true);
+  EXPECT_TRUE(test::RotationNear(inverted->vehicle_R_sensor, quat->vehicle_R_sensor.inverse(), 1e-15));
+  // The inverse of an inverted entry is the entry as written.
+  bool found = false;
+  for (const AlternativeReading& a : inverted->alternatives) {
+    if (a.label.rfind("the other direction", 0) == 0) {
+      found = true;
+      EXPECT_TRUE(test::RotationNear(a.vehicle_R_sensor, quat->vehicle_R_sensor, 1e-15));
+    }
+  }
+  EXPECT_TRUE(found);
+  const auto bad = read_mount_text("0.9 0.3 0.2", PoseTextOptions{ReadingKind::QuatWxyz, {}}, kFrd);
+  ASSERT_FALSE(bad.ok());
+  EXPECT_EQ(bad.error().line, 1);
+  EXPECT_FALSE(read_mount_text("1 2", guess, kFrd).ok());
+}
+
+}  // namespace
+}  // namespace attiscope

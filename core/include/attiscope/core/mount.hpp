@@ -19,6 +19,7 @@
 #include <vector>
 
 #include "attiscope/core/expected.hpp"
+#include "attiscope/core/pose_text.hpp"
 #include "attiscope/core/rotation.hpp"
 #include "attiscope/core/text.hpp"
 #include "attiscope/core/vehicle_axes.hpp"
@@ -78,6 +79,21 @@ std::vector<AlternativeReading> alternative_readings(std::string_view text, Read
 /// The only alternative of a value without numbers to re-read (words, a vector solve):
 /// the inverse, labelled.
 std::vector<AlternativeReading> inverse_only(const Rotation& vehicle_R_sensor, const std::string& label);
+
+/// A mount read from a person's text (a --nominal or --measured value, a panel field).
+struct MountReading {
+  Rotation vehicle_R_sensor;
+  std::string description;  ///< how it was read: "quat-wxyz, sensor-to-vehicle", "words \"x aft, z down\""
+  std::vector<AlternativeReading> alternatives;  ///< other readings, for check_mount
+  std::vector<std::string> warnings;
+  bool words = false;  ///< read as axis-aligned words
+};
+
+/// Reads a mount: axis-aligned words when the text looks like words, otherwise numbers
+/// through read_pose_text. `vehicle_to_sensor` says the value was written the other way
+/// round (it is inverted). Errors name the line and column of the text.
+Expected<MountReading> read_mount_text(std::string_view text, const PoseTextOptions& options,
+                                       const VehicleAxes& names, bool vehicle_to_sensor = false);
 
 enum class MountVerdict {
   WithinTolerance,    ///< go, as far as this check goes
