@@ -6,8 +6,8 @@
 #include <nlohmann/json.hpp>
 #include <ostream>
 
-#include "attiscope/core/compare.hpp"
 #include "attiscope/core/mount.hpp"
+#include "attiscope/core/mount_report.hpp"
 #include "attiscope/core/mount_setup.hpp"
 #include "attiscope/core/wahba.hpp"
 #include "cli/cli.hpp"
@@ -43,6 +43,7 @@ const char* kMountHelp =
     "  --setup FILE       read the nominal, measured, tolerance and vehicle axes from a mount\n"
     "                     setup file (TOML); options given here override it\n"
     "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
+    "  --sheet FILE       write the text check sheet (inputs, result, tolerance, date, caution)\n"
     "  --list-aligned     print the 24 axis-aligned mounts and their names\n"
     "\n"
     "The vector solve is the SVD solution of Wahba's problem (Markley 1988), cross-checked with\n"
@@ -73,10 +74,6 @@ nlohmann::json matrix_json(const Rotation& r) {
   return rows;
 }
 
-nlohmann::json vec_json(const Eigen::Vector3d& v) {
-  return nlohmann::json::array({v.x(), v.y(), v.z()});
-}
-
 std::string fmt(double v, int precision) {
   if (v == 0.0) v = 0.0;
   char buf[64];
@@ -104,17 +101,6 @@ Expected<bool> parse_direction(const CommonOptions& o, const std::string& option
     }
   }
   return true;
-}
-
-nlohmann::json turns_json(const std::array<NamedTurn, 3>& turns) {
-  nlohmann::json out = nlohmann::json::array();
-  for (const NamedTurn& t : turns) {
-    out.push_back({{"axis", std::string(1, "xyz"[t.axis])},
-                   {"name", t.turn_name},
-                   {"angle_deg", t.angle_rad * kDeg},
-                   {"sense", t.sense}});
-  }
-  return out;
 }
 
 int list_aligned(const VehicleAxes& names, const CommonOptions& o, Streams io) {
@@ -153,6 +139,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
                                {"--measured-direction", true},
                                {"--setup", true},
                                {"--save", true},
+                               {"--sheet", true},
                                {"--list-aligned", false}},
                               &o)) {
     return bad(io, *err);
@@ -223,174 +210,62 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   }
 
   // The measured mount.
+  MountInputs inputs;
+  inputs.names = names;
+  inputs.tolerance_rad = tolerance_deg / kDeg;
+  inputs.nominal = nominal;
   if (o.has("--measured") && o.has("--vectors")) return bad(io, "give --measured or --vectors, not both");
-  std::optional<MountReading> measured;
-  std::optional<VectorSolve> solve;
-  std::vector<VectorPair> vector_pairs;
   if (auto text = o.last("--measured")) {
     bool inverted = false;
     auto d = parse_direction(o, "--measured-direction", &inverted);
     if (!d) return bad(io, d.error().describe());
     auto m = read_mount_text(*text, pose_options(o), names, inverted);
     if (!m) return bad(io, "--measured: " + m.error().describe());
-    measured = m.value();
-    for (const std::string& w : measured->warnings) warnings.push_back("measured: " + w);
+    inputs.measured = m.value();
   } else if (auto path = o.last("--vectors")) {
     auto file = read_input_file(*path, io.in);
     if (!file) return bad(io, file.error().describe());
     auto pairs = parse_vector_pairs(file.value());
     if (!pairs) return bad(io, *path + ": " + pairs.error().describe());
-    vector_pairs = pairs.value();
-    auto s = solve_mount_from_vectors(pairs.value(), names);
-    if (!s) return bad(io, *path + ": " + s.error().describe());
-    solve = s.value();
-    for (const std::string& w : solve->warnings) warnings.push_back(w);
-    if (solve->vehicle_R_sensor) {
-      measured =
-          MountReading{*solve->vehicle_R_sensor,
-                       "solved from " + std::to_string(pairs.value().size()) + " vector pairs in " + *path,
-                       inverse_only(*solve->vehicle_R_sensor,
-                                    "the vector columns swapped (vehicle vector first, then sensor vector)"),
-                       {}};
-    }
+    inputs.vectors = pairs.value();
+    inputs.vectors_source = *path;
   } else if (setup.measured) {
-    measured = MountReading{*setup.measured, "from the setup file", {}, {}};
-  }
-  if (!measured && !solve) {
+    inputs.measured = MountReading{*setup.measured, "from the setup file", {}, {}};
+  } else {
     return bad(io, "give the measured mount with --measured TEXT or --vectors FILE (see --help)");
   }
-
-  std::optional<MountCheck> check;
-  if (nominal && measured) {
-    check = check_mount(nominal->vehicle_R_sensor, measured->vehicle_R_sensor, tolerance_deg / kDeg, names,
-                        measured->alternatives);
-  }
-  const bool refused = solve && !solve->vehicle_R_sensor;
+  auto result = run_mount_check(inputs);
+  if (!result)
+    return bad(io, (inputs.vectors ? inputs.vectors_source + ": " : "") + result.error().describe());
+  MountResult& r = result.value();
+  r.warnings.insert(r.warnings.begin(), warnings.begin(), warnings.end());
 
   if (auto path = o.last("--save")) {
-    if (measured) {
-      setup.measured = measured->vehicle_R_sensor;
-      setup.measured_note = measured->description;
+    if (r.measured) {
+      setup.measured = r.measured->vehicle_R_sensor;
+      setup.measured_note = r.measured->description;
     }
     auto saved = save_mount_setup(*path, setup);
     if (!saved) return bad(io, "--save: " + saved.error().describe());
   }
+  if (auto path = o.last("--sheet")) {
+    auto written = write_text_file(*path, mount_report_text(r, o.precision, utc_date_time()));
+    if (!written) return bad(io, "--sheet: " + written.error().describe());
+  }
 
   if (o.json) {
-    nlohmann::json j;
-    j["vehicle_axes"] = names.code();
-    j["mount"] = measured ? nlohmann::json{{"quaternion", quat_json(measured->vehicle_R_sensor)},
-                                           {"matrix", matrix_json(measured->vehicle_R_sensor)},
-                                           {"direction", "sensor_to_vehicle"},
-                                           {"source", measured->description}}
-                          : nlohmann::json();
-    j["nominal"] = nominal ? nlohmann::json{{"quaternion", quat_json(nominal->vehicle_R_sensor)},
-                                            {"matrix", matrix_json(nominal->vehicle_R_sensor)},
-                                            {"source", nominal->description}}
-                           : nlohmann::json();
-    j["tolerance_deg"] = tolerance_deg;
-    if (check) {
-      j["error_deg"] = check->error_rad * kDeg;
-      j["error_axis_vehicle"] = vec_json(check->error_axis_vehicle);
-      j["error_quaternion_vehicle"] = quat_json(check->error_vehicle);
-      j["error_words"] = check->error_words;
-      j["error_turns"] = turns_json(check->error_turns);
-      j["within_tolerance"] = check->within_tolerance;
-      j["verdict"] = verdict_name(check->verdict);
-      j["verdict_text"] = check->verdict_text;
-      nlohmann::json ex = nlohmann::json::array();
-      for (const Explanation& e : check->explanations)
-        ex.push_back({{"reading", e.label}, {"error_deg", e.error_rad * kDeg}});
-      j["explanations"] = ex;
-      j["nearest_reorientation_deg"] = check->nearest_reorientation_rad * kDeg;
-    } else {
-      j["error_deg"] = nullptr;
-      j["within_tolerance"] = nullptr;
-    }
-    if (solve) {
-      nlohmann::json res = nlohmann::json::array();
-      for (double r : solve->residuals_rad) res.push_back(r * kDeg);
-      j["residuals_deg"] = res;
-      j["separation_deg"] = solve->observability.separation_rad * kDeg;
-      if (solve->vehicle_R_sensor) {
-        j["solver"] = {
-            {"method", "svd"},
-            {"loss", solve->loss},
-            {"davenport_difference_deg", solve->davenport_difference_rad * kDeg},
-            {"triad", solve->triad ? nlohmann::json{{"quaternion", quat_json(*solve->triad)},
-                                                    {"difference_deg", solve->triad_difference_rad * kDeg},
-                                                    {"lines", solve->triad_lines}}
-                                   : nlohmann::json()}};
-      }
-      j["unobservable"] = refused ? nlohmann::json(solve->observability.sentence) : nlohmann::json();
-      if (refused) {
-        j["free_axis_vehicle"] = vec_json(solve->observability.free_axis_vehicle);
-        j["free_axis_sensor"] = vec_json(solve->observability.free_axis_sensor);
-      }
-    } else {
-      j["residuals_deg"] = nullptr;
-      j["unobservable"] = nullptr;
-    }
-    j["warnings"] = warnings;
-    j["caution"] = kMountCaution;
-    io.out << j.dump(2) << "\n";
+    io.out << mount_json(r).dump(2) << "\n";
   } else {
-    const int p = o.precision;
-    io.out << "mount check   vehicle axes " << names.code() << " (x " << names.direction_word(0) << ", y "
-           << names.direction_word(1) << ", z " << names.direction_word(2)
-           << "); a mount is vehicle_R_sensor (sensor coordinates -> vehicle coordinates)\n";
-    if (nominal) {
-      io.out << "nominal       " << quat_text(nominal->vehicle_R_sensor, p) << "\n              "
-             << nominal->description << "\n";
-    }
-    if (measured) {
-      io.out << "measured      " << quat_text(measured->vehicle_R_sensor, p) << "\n              "
-             << measured->description << "\n";
-    }
-    if (solve && solve->vehicle_R_sensor) {
-      io.out << "solver        SVD (Markley 1988); q-method differs by "
-             << fmt(solve->davenport_difference_rad * kDeg, 3) << " degrees";
-      if (solve->triad) {
-        io.out << "; TRIAD on pairs " << solve->triad_lines[0] << " and " << solve->triad_lines[1]
-               << " differs by " << fmt(solve->triad_difference_rad * kDeg, 3) << " degrees";
-      }
-      io.out << "\nresiduals    ";
-      for (double r : solve->residuals_rad) io.out << " " << fmt(r * kDeg, 3);
-      io.out << " degrees\n";
-    }
-    if (refused) io.out << "REFUSED       " << solve->observability.sentence << "\n";
-    if (check) {
-      io.out << "error         " << check->error_words << "\n";
-      if (check->error_rad <= kSmallSplitLimitRad) {
-        io.out << "              split:";
-        for (const NamedTurn& t : check->error_turns) {
-          io.out << "  " << t.turn_name << " " << fmt(t.angle_rad * kDeg, 3)
-                 << (t.sense.empty() ? "" : " (" + t.sense + ")");
-        }
-        io.out << " degrees (small-angle split about the vehicle's axes)\n";
-      }
-      io.out << "tolerance     " << fmt(tolerance_deg, p) << " degrees\n";
-      io.out << "result        " << (check->within_tolerance ? "PASS" : "FAIL") << ": " << check->verdict_text
-             << "\n";
-      for (std::size_t i = 1; i < check->explanations.size(); ++i) {
-        io.out << "              also explained by " << check->explanations[i].label << " ("
-               << fmt(check->explanations[i].error_rad * kDeg, 3) << " degrees)\n";
-      }
-    } else if (measured) {
-      io.out << "result        no nominal mount given: nothing to check against (use --nominal)\n";
-    }
-    for (const std::string& w : warnings) io.out << "warning: " << w << "\n";
-    io.out << "\n" << kMountCaution << "\n";
+    io.out << mount_report_text(r, o.precision);
   }
-  if (refused) {
+  if (r.refused()) {
     std::string lines;
-    for (const VectorPair& pr : vector_pairs) lines += (lines.empty() ? "" : ", ") + std::to_string(pr.line);
-    io.err << "attiscope mount: " << *o.last("--vectors") << ": lines " << lines
-           << ": refused: " << solve->observability.sentence << "\n";
+    for (int line : r.vector_lines) lines += (lines.empty() ? "" : ", ") + std::to_string(line);
+    io.err << "attiscope mount: " << inputs.vectors_source << ": lines " << lines
+           << ": refused: " << r.solve->observability.sentence << "\n";
     return kExitBadInput;
   }
-  if (check && !check->within_tolerance) return kExitCheckFailed;
-  return kExitOk;
+  return r.failed() ? kExitCheckFailed : kExitOk;
 }
 
 }  // namespace attiscope::cli

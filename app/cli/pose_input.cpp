@@ -2,6 +2,8 @@
 #include "cli/pose_input.hpp"
 
 #include <cmath>
+#include <cstdio>
+#include <ctime>
 #include <fstream>
 #include <iterator>
 #include <sstream>
@@ -28,6 +30,34 @@ Expected<std::string> read_input_file(const std::string& path, std::istream& in)
   std::ostringstream s;
   s << f.rdbuf();
   return s.str();
+}
+
+Expected<bool> write_text_file(const std::string& path, const std::string& text) {
+  const std::string temp = path + ".saving";
+  {
+    std::ofstream f(temp, std::ios::binary | std::ios::trunc);
+    if (!f) return Error{"cannot write '" + temp + "'"};
+    f << text;
+    f.flush();
+    if (!f) {
+      std::remove(temp.c_str());
+      return Error{"writing '" + temp + "' failed"};
+    }
+  }
+  if (std::rename(temp.c_str(), path.c_str()) != 0) {
+    std::remove(temp.c_str());
+    return Error{"cannot replace '" + path + "'"};
+  }
+  return true;
+}
+
+std::string utc_date_time() {
+  const std::time_t now = std::time(nullptr);
+  std::tm utc{};
+  gmtime_r(&now, &utc);
+  char buf[64];
+  std::strftime(buf, sizeof buf, "%Y-%m-%d %H:%M UTC", &utc);
+  return buf;
 }
 
 Expected<double> parse_number_option(const std::string& name, const std::string& value, bool non_negative) {

@@ -25,6 +25,12 @@ Expected<PoseText> read_pose_text(std::string_view text, const CommonOptions& o)
 /// Reads a whole file, or standard input for "-". Error when it cannot be read.
 Expected<std::string> read_input_file(const std::string& path, std::istream& in);
 
+/// Writes a text file (temporary file, then rename). Error when it cannot be written.
+Expected<bool> write_text_file(const std::string& path, const std::string& text);
+
+/// The current date and time in UTC, "2026-12-01 20:35 UTC", for check sheets.
+std::string utc_date_time();
+
 /// Parses a number option such as --tolerance ("0.5"); error names the option.
 Expected<double> parse_number_option(const std::string& name, const std::string& value, bool non_negative);
 
