@@ -6,6 +6,7 @@
 #include <ostream>
 
 #include "attiscope/core/compare.hpp"
+#include "attiscope/core/compare_report.hpp"
 #include "cli/cli.hpp"
 #include "cli/pose_input.hpp"
 
@@ -42,15 +43,6 @@ const char* kCompareHelp =
     "  attiscope compare --json --as quat-wxyz \"1 0 0 0\" \"0.9990482 0 0.0436194 0\"\n"
     "  attiscope compare --mean readings.txt --as quat-wxyz --tolerance 0.5\n"
     "\n";
-
-nlohmann::json quat_json(const Rotation& r) {
-  const Eigen::Quaterniond q = r.quaternion();
-  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
-}
-
-nlohmann::json vec_json(const Eigen::Vector3d& v) {
-  return nlohmann::json::array({v.x(), v.y(), v.z()});
-}
 
 std::string fmt(double v, int precision) {
   if (v == 0.0) v = 0.0;
@@ -115,23 +107,7 @@ int run_mean(const CommonOptions& o, const std::optional<double>& tolerance_deg,
   const MeanSpread& s = ms.value();
   const bool within = !tolerance_deg || s.max_rad * kDeg <= *tolerance_deg;
   if (o.json) {
-    nlohmann::json j;
-    j["count"] = poses.size();
-    j["mean"] = {{"quaternion", quat_json(s.mean)}};
-    nlohmann::json aligned = nlohmann::json::array(), angles = nlohmann::json::array();
-    for (std::size_t i = 0; i < poses.size(); ++i) {
-      const Eigen::Quaterniond& q = s.aligned[i];
-      aligned.push_back({{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}});
-      angles.push_back(s.angles_rad[i] * kDeg);
-    }
-    j["aligned_quaternions"] = aligned;
-    j["lines"] = lines;
-    j["angles_from_mean_deg"] = angles;
-    j["max_deg"] = s.max_rad * kDeg;
-    j["max_line"] = lines[s.max_index];
-    j["rms_deg"] = s.rms_rad * kDeg;
-    j["hemisphere_flips"] = s.flipped;
-    j["method"] = "Markley, Cheng, Crassidis, Oshman 2007: eigenvector of sum q q^T";
+    nlohmann::json j = mean_spread_json(s, lines);
     j["tolerance_deg"] = tolerance_deg ? nlohmann::json(*tolerance_deg) : nlohmann::json();
     j["within_tolerance"] = tolerance_deg ? nlohmann::json(within) : nlohmann::json();
     j["warnings"] = warnings;
@@ -209,42 +185,10 @@ int run_compare(const std::vector<std::string>& args, Streams io) {
   const bool within = !tolerance_deg || c.angle_rad * kDeg <= *tolerance_deg;
   const std::vector<Rotation> path = slerp_path(poses[0], poses[1], path_count);
   if (o.json) {
-    nlohmann::json j;
-    j["reference"] = {{"quaternion", quat_json(c.world_R_reference)}};
-    j["current"] = {{"quaternion", quat_json(c.world_R_current)}};
-    j["angle_deg"] = c.angle_rad * kDeg;
-    nlohmann::json named = nlohmann::json();
-    if (c.named_turns) {
-      named = nlohmann::json::array();
-      for (const NamedTurn& t : *c.named_turns) {
-        named.push_back({{"axis", std::string(1, "xyz"[t.axis])},
-                         {"name", t.turn_name},
-                         {"angle_deg", t.angle_rad * kDeg},
-                         {"sense", t.sense}});
-      }
-    }
-    j["body"] = {{"relation", "world_R_current = world_R_reference * reference_R_current"},
-                 {"quaternion", quat_json(c.reference_R_current)},
-                 {"axis", vec_json(c.axis_body)},
-                 {"angle_deg", c.angle_rad * kDeg},
-                 {"turns_deg", vec_json(c.turns_body_rad * kDeg)},
-                 {"named_turns", named}};
-    j["world"] = {{"relation", "world_R_current = world_delta * world_R_reference"},
-                  {"quaternion", quat_json(c.world_delta)},
-                  {"axis", vec_json(c.axis_world)},
-                  {"angle_deg", c.angle_rad * kDeg},
-                  {"turns_deg", vec_json(c.turns_world_rad * kDeg)}};
-    const EulerDifference& e = c.euler;
-    j["euler_difference"] = {{"sequence", e.convention.sequence()},
-                             {"kind", e.convention.kind_name()},
-                             {"reference_deg", vec_json(e.reference.angles_rad * kDeg)},
-                             {"current_deg", vec_json(e.current.angles_rad * kDeg)},
-                             {"difference_deg", vec_json(e.difference_rad * kDeg)},
-                             {"mismatch_deg", e.mismatch_rad * kDeg},
-                             {"note", e.note.empty() ? nlohmann::json() : nlohmann::json(e.note)}};
+    nlohmann::json j = comparison_json(c);
     if (path_count > 0) {
       nlohmann::json p = nlohmann::json::array();
-      for (const Rotation& r : path) p.push_back(quat_json(r));
+      for (const Rotation& r : path) p.push_back(quaternion_json(r));
       j["path"] = p;
     }
     j["tolerance_deg"] = tolerance_deg ? nlohmann::json(*tolerance_deg) : nlohmann::json();
