@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <nlohmann/json.hpp>
 #include <ostream>
+#include <sstream>
 
 #include "attiscope/core/mount.hpp"
 #include "attiscope/core/mount_report.hpp"
@@ -45,6 +46,8 @@ const char* kMountHelp =
     "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
     "  --sheet FILE       write the text check sheet (inputs, result, tolerance, date, caution)\n"
     "  --list-aligned     print the 24 axis-aligned mounts and their names\n"
+    "  --relative \"A B\"   with --setup: frame A relative to frame B from the file's frame chain\n"
+    "                     (A_R_B maps B coordinates into A, and B's origin in A, metres)\n"
     "\n"
     "The vector solve is the SVD solution of Wahba's problem (Markley 1988), cross-checked with\n"
     "Davenport's q-method and TRIAD (Shuster & Oh 1981). Vectors too close to parallel are refused,\n"
@@ -124,6 +127,42 @@ int list_aligned(const VehicleAxes& names, const CommonOptions& o, Streams io) {
   return kExitOk;
 }
 
+// `--relative "A B"`: A_T_B from the setup's frame chain.
+int relative_frames(const MountSetup& setup, const std::string& pair, const CommonOptions& o, Streams io) {
+  std::istringstream words(pair);
+  std::string a, b, extra;
+  if (!(words >> a >> b) || (words >> extra))
+    return bad(io, "--relative needs two frame names, e.g. \"vehicle sensor\"");
+  if (setup.chain.frames().empty()) return bad(io, "--relative needs a --setup file with frames and links");
+  auto t = setup.chain.relative(a, b);
+  if (!t) return bad(io, "--relative: " + t.error().describe());
+  const Rotation& a_R_b = t->rotation;
+  if (o.json) {
+    io.out << nlohmann::json{{"from", b},
+                             {"to", a},
+                             {"relation",
+                              a + "_R_" + b + " maps " + b + " coordinates into " + a + " coordinates"},
+                             {"quaternion", quat_json(a_R_b)},
+                             {"matrix", matrix_json(a_R_b)},
+                             {"translation_m", {t->translation.x(), t->translation.y(), t->translation.z()}},
+                             {"path_a", setup.chain.path_from_root(a)},
+                             {"path_b", setup.chain.path_from_root(b)}}
+                  .dump(2)
+           << "\n";
+    return kExitOk;
+  }
+  const int p = o.precision;
+  io.out << a << "_R_" << b << "   " << quat_text(a_R_b, p) << "   (maps " << b << " coordinates into " << a
+         << " coordinates)\n";
+  const Eigen::Matrix3d m = a_R_b.matrix();
+  for (int i = 0; i < 3; ++i) {
+    io.out << "    " << fmt(m(i, 0), p) << "  " << fmt(m(i, 1), p) << "  " << fmt(m(i, 2), p) << "\n";
+  }
+  io.out << b << " origin in " << a << "   (" << fmt(t->translation.x(), p) << ", "
+         << fmt(t->translation.y(), p) << ", " << fmt(t->translation.z(), p) << ") m\n";
+  return kExitOk;
+}
+
 }  // namespace
 
 int run_mount(const std::vector<std::string>& args, Streams io) {
@@ -140,6 +179,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
                                {"--setup", true},
                                {"--save", true},
                                {"--sheet", true},
+                               {"--relative", true},
                                {"--list-aligned", false}},
                               &o)) {
     return bad(io, *err);
@@ -167,6 +207,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   }
   setup.vehicle_axes = names;
   if (o.has("--list-aligned")) return list_aligned(names, o, io);
+  if (auto rel = o.last("--relative")) return relative_frames(setup, *rel, o, io);
 
   double tolerance_deg = setup.tolerance_deg;
   if (auto t = o.last("--tolerance")) {

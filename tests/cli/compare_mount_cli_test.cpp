@@ -220,6 +220,31 @@ TEST(MountCliTest, SetupFileSaveAndLoad) {
   std::filesystem::remove(path);
 }
 
+TEST(MountCliTest, ReportsAFrameRelativeToAnother) {
+  // An invented camera rig: vehicle -> plate turned 90 degrees about z, plate -> camera
+  // entered the other way round (camera_R_plate), 0.2 m along plate x.
+  const std::string path = temp_file("rig.toml",
+                                     "name = \"camera rig (invented)\"\n"
+                                     "[[link]]\nparent = \"vehicle\"\nchild = \"plate\"\n"
+                                     "axis_angle_deg = [0, 0, 1, 90]\nlever_arm_m = [1, 0, 0]\n"
+                                     "[[link]]\nparent = \"plate\"\nchild = \"camera\"\n"
+                                     "axis_angle_deg = [1, 0, 0, -30]\nmaps = \"parent_to_child\"\n");
+  const CliRun r = run_cli({"mount", "--setup", path, "--relative", "vehicle camera", "--json"});
+  ASSERT_EQ(r.code, kExitOk) << r.err;
+  const nlohmann::json j = r.json();
+  const Rotation expected =
+      elementary_rotation(Axis::Z, M_PI / 2) * elementary_rotation(Axis::X, 30 * M_PI / 180);
+  const Rotation got(
+      Eigen::Quaterniond(j["quaternion"]["w"].get<double>(), j["quaternion"]["x"].get<double>(),
+                         j["quaternion"]["y"].get<double>(), j["quaternion"]["z"].get<double>()));
+  EXPECT_TRUE(test::RotationNear(got, expected, 1e-12));
+  EXPECT_NEAR(j["translation_m"][0].get<double>(), 1.0, 1e-15);
+  const CliRun unknown = run_cli({"mount", "--setup", path, "--relative", "vehicle tripod"});
+  EXPECT_EQ(unknown.code, kExitBadInput);
+  EXPECT_NE(unknown.err.find("tripod"), std::string::npos);
+  std::filesystem::remove(path);
+}
+
 TEST(MountCliTest, ListsTheTwentyFourMounts) {
   const CliRun r = run_cli({"mount", "--list-aligned", "--json"});
   ASSERT_EQ(r.code, kExitOk);
