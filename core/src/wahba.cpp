@@ -19,6 +19,8 @@ constexpr double kDeg = 180.0 / M_PI;
 constexpr double kMinVectorNorm = 1e-12;
 /// Lines closer than this are said to be one line.
 constexpr double kParallelRad = 1e-9;
+/// Up to this many pairs the separation is computed over all pairs.
+constexpr std::size_t kExactSeparationCount = 256;
 
 std::string fmt(double v, int precision = 3) {
   if (v == 0.0) v = 0.0;
@@ -36,6 +38,35 @@ double line_angle(const Eigen::Vector3d& a, const Eigen::Vector3d& b) {
   const double s = a.cross(b).norm();
   const double c = std::abs(a.dot(b));
   return std::atan2(s, c);
+}
+
+// The largest angle between the lines of two of the unit vectors. Exact (all pairs) up to
+// kExactSeparationCount vectors; beyond, two sweeps (the vector furthest from the first,
+// then the one furthest from that), which is at least half the exact value and exact
+// whenever the vectors lie in one plane through the line: O(n) for long files.
+double largest_line_angle(const std::vector<Eigen::Vector3d>& dirs) {
+  double best = 0.0;
+  if (dirs.size() <= kExactSeparationCount) {
+    for (std::size_t i = 0; i < dirs.size(); ++i) {
+      for (std::size_t j = i + 1; j < dirs.size(); ++j) best = std::max(best, line_angle(dirs[i], dirs[j]));
+    }
+    return best;
+  }
+  std::size_t from = 0;
+  for (int sweep = 0; sweep < 2; ++sweep) {
+    std::size_t furthest = from;
+    double far_angle = 0.0;
+    for (std::size_t i = 0; i < dirs.size(); ++i) {
+      const double a = line_angle(dirs[from], dirs[i]);
+      if (a > far_angle) {
+        far_angle = a;
+        furthest = i;
+      }
+    }
+    best = std::max(best, far_angle);
+    from = furthest;
+  }
+  return best;
 }
 
 // Names a line in vehicle words when it is close to a vehicle axis.
@@ -168,15 +199,13 @@ Observability vector_observability(const std::vector<VectorPair>& pairs, const V
   }
   // The largest angle between the lines of any two sensor vectors (and the same for the
   // vehicle vectors: the smaller of the two decides).
-  double sensor_sep = 0.0, vehicle_sep = 0.0;
-  for (std::size_t i = 0; i < used.size(); ++i) {
-    for (std::size_t j = i + 1; j < used.size(); ++j) {
-      sensor_sep =
-          std::max(sensor_sep, line_angle(used[i]->sensor.normalized(), used[j]->sensor.normalized()));
-      vehicle_sep =
-          std::max(vehicle_sep, line_angle(used[i]->vehicle.normalized(), used[j]->vehicle.normalized()));
-    }
+  std::vector<Eigen::Vector3d> sensor_dirs, vehicle_dirs;
+  for (const VectorPair* p : used) {
+    sensor_dirs.push_back(p->sensor.normalized());
+    vehicle_dirs.push_back(p->vehicle.normalized());
   }
+  const double sensor_sep = largest_line_angle(sensor_dirs);
+  const double vehicle_sep = largest_line_angle(vehicle_dirs);
   o.separation_rad = std::min(sensor_sep, vehicle_sep);
   if (used.empty()) {
     o.observable = false;

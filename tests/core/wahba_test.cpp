@@ -158,6 +158,29 @@ TEST(WahbaTest, SeparationDecidesRefusalAndWarning) {
   EXPECT_FALSE(solve_mount_from_vectors(zeroed, kFrd)->vehicle_R_sensor.has_value());
 }
 
+TEST(WahbaTest, LongFilesUseTheLinearSeparationBound) {
+  // 400 pairs (beyond the all-pairs limit) within 1 degree of one line, either sign: refused;
+  // one more pair 40 degrees off that line makes it observable.
+  std::mt19937 rng(kSeed + 3);
+  std::uniform_real_distribution<double> u(-1.0, 1.0);
+  std::vector<VectorPair> pairs;
+  for (int i = 0; i < 400; ++i) {
+    const double a = 0.7 * M_PI / 180.0 * u(rng), b = 0.7 * M_PI / 180.0 * u(rng);
+    Eigen::Vector3d d(std::sin(a), std::sin(b), 1.0);
+    if (i % 2) d = -d;
+    pairs.push_back({d, d, 1.0, i + 1});
+  }
+  const auto refused = solve_mount_from_vectors(pairs, kFrd);
+  EXPECT_FALSE(refused->vehicle_R_sensor.has_value()) << "seed " << kSeed + 3;
+  EXPECT_TRUE(
+      test::MatrixNear(refused->observability.free_axis_vehicle.cwiseAbs(), Eigen::Vector3d(0, 0, 1), 0.02));
+  const Eigen::Vector3d off(std::sin(40 * M_PI / 180), 0, std::cos(40 * M_PI / 180));
+  pairs.push_back({off, off, 1.0, 401});
+  const auto solved = solve_mount_from_vectors(pairs, kFrd);
+  ASSERT_TRUE(solved->vehicle_R_sensor.has_value());
+  EXPECT_TRUE(test::RotationNear(*solved->vehicle_R_sensor, Rotation::identity(), 1e-12));
+}
+
 TEST(WahbaTest, VectorFileErrorsNameLineAndColumn) {
   const auto ok = parse_vector_pairs("# sensor then vehicle\n0 0 1  0 0 1\n\n1 0 0  0 1 0  2.5 # weighted\n");
   ASSERT_TRUE(ok.ok());

@@ -56,8 +56,10 @@ Expected<Rotation> triad(const VectorPair& first, const VectorPair& second);
 /// Whether the pairs fix the rotation.
 struct Observability {
   bool observable = true;
-  /// The largest angle between the lines of two sensor vectors (0 to 90 degrees): near 0
-  /// the vectors are all parallel or antiparallel.
+  /// The largest angle between the lines of two sensor vectors (0 to 90 degrees), and the
+  /// same for the vehicle vectors, whichever is smaller: near 0 the vectors are all parallel
+  /// or antiparallel. Exact up to 256 pairs; beyond, a two-sweep bound of at least half the
+  /// exact value (so a refusal of a very long file is conservative).
   double separation_rad = 0.0;
   /// When not observable: the line the rotation is free about, in each frame.
   Eigen::Vector3d free_axis_sensor = Eigen::Vector3d::Zero();
