@@ -20,6 +20,7 @@ const Subcommand kSubcommands[] = {
     {"render", "headless PNG of the body in a pose", run_render},
     {"find", "the conventions under which two texts are one rotation", run_find},
     {"convention", "check a house convention file and show what it means", run_convention},
+    {"read", "print the ranked readings of pasted text", run_read},
 };
 
 void print_usage(std::ostream& os) {

@@ -368,7 +368,12 @@ class Structure {
       Collected c;
       const std::size_t end = collect(j, &c);
       if (!c.numbers.empty()) {
-        const std::string name = bare_name(lower(k.text));
+        std::string last = lower(k.text);
+        for (const char* sep : {".", "/", "->", "::"}) {
+          const auto p = last.rfind(sep);
+          if (p != std::string::npos) last = last.substr(p + std::string(sep).size());
+        }
+        const std::string name = bare_name(last);
         const Role r = role_of(name);
         const Hint h = hint_of(std::string(k.text));
         if (r == Role::Unknown && h == Hint::None) {
@@ -495,7 +500,7 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
         Reading q = r.value();
         q.layout = last ? "xyzw" : "wxyz";
         q.as = last ? ReadingKind::QuatXyzw : ReadingKind::QuatWxyz;
-        q.score = 0.6;
+        q.score = last ? 0.66 : 0.6;
         if ((prefs.quat_layout == QuatLayout::ScalarLast) == last) q.score += kHouseBonus;
         q.why = last ? "labels q1..q4 read with q4 as the scalar (the usual spacecraft meaning)"
                      : "labels q1..q4 read with q1 as the scalar (numbered from 1, scalar first)";
@@ -537,7 +542,23 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
       std::vector<NumberToken> n = {val(g.at(Role::Rx)), val(g.at(Role::Ry)), val(g.at(Role::Rz))};
       std::optional<Error> err;
       Layout layout;
+      // rx ry rz: most often a rotation vector (robot tool poses, common practice), else
+      // angles about x, y and z applied in the house's Tait-Bryan order.
+      EulerConvention conv{{Axis::Z, Axis::Y, Axis::X}, EulerKind::Intrinsic};
+      if (!prefs.euler.proper()) conv = prefs.euler;
       for (Reading& r : shape_readings(n, Hint::None, layout, prefs, &err)) {
+        if (r.kind == IntakeKind::RotationVector) {
+          r.score *= 1.6;
+        } else if (r.kind == IntakeKind::Euler) {
+          Eigen::Vector3d a;
+          for (int k = 0; k < 3; ++k) a(k) = n[static_cast<std::size_t>(conv.axes[static_cast<std::size_t>(k)])].value;
+          Reading e = euler_reading(conv, a, r.unit);
+          e.score = r.score;
+          e.warnings = r.warnings;
+          e.why = "angles about x, y and z read " + conv.name() + " in " +
+                  (r.unit == AngleUnit::Degrees ? "degrees" : "radians");
+          r = e;
+        }
         r.why = "labels rx ry rz: " + r.why;
         out.readings.push_back(r);
       }
@@ -572,8 +593,9 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
   }
   for (const Field* f : multi) {
     const Role r = role_of(f->name);
-    if (r == Role::Axis || r == Role::Translation) continue;
-    const Hint h = hint_of(f->name);
+    if ((r == Role::Axis || r == Role::Translation) && f->values.size() == 3) continue;
+    const auto dot = f->path.rfind('.');
+    const Hint h = hint_of(dot == std::string::npos ? f->path : f->path.substr(dot + 1));
     if (h == Hint::None) continue;
     std::optional<Error> err;
     for (Reading& rd : shape_readings(f->values, h, Layout{}, prefs, &err)) {
@@ -596,7 +618,10 @@ bool is_shape(std::size_t n) { return n == 3 || n == 4 || n == 9 || n == 12 || n
 
 std::vector<Window> windows(std::size_t n) {
   std::vector<Window> out;
-  if (is_shape(n)) out.push_back({0, 0, 1.0});
+  if (is_shape(n)) {
+    out.push_back({0, 0, 1.0});
+    return out;  // a count a reading takes is read whole
+  }
   if (n > 1 && is_shape(n - 1)) {
     out.push_back({1, 0, 0.85});  // a leading time stamp
     out.push_back({0, 1, 0.75});  // a trailing id
@@ -744,6 +769,7 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
     result.shape = "quaternion in i/j/k notation";
   }
 
+  if (readings.empty() && lab.error && s.loose.empty()) return *lab.error;
   if (readings.empty()) {
     const std::vector<NumberToken>& n = s.loose;
     const auto ws = windows(n.size());

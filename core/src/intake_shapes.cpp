@@ -293,18 +293,18 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
       double s = 0.5;
       std::string slot;
       if (lead > other + 0.2) {
-        s = 0.6;
+        s = 0.54;
         slot = std::string("the ") + (first ? "first" : "last") +
                " number, read as the scalar, is the larger end (a modest turn has a large scalar)";
       } else if (other > lead + 0.2) {
-        s = 0.4;
+        s = 0.46;
         slot = std::string("the ") + (first ? "last" : "first") + " number is the larger end, which suggests it is the scalar";
       } else {
         slot = "the numbers do not show which end holds the scalar";
       }
       if ((prefs.quat_layout == QuatLayout::ScalarFirst) == first) s += kHouseBonus;
       if (angle_written) s *= 0.3;
-      q.score = s * unit_q * hint_q * 1.1;
+      q.score = s * unit_q * hint_q;
       q.why = std::string("four numbers of norm ") + fmt(norm, 7) + " read as a quaternion, scalar " +
               (first ? "first" : "last") + "; " + slot;
       out.push_back(q);
@@ -358,6 +358,8 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
       Reading e = euler_reading(conv, angles, unit);
       const bool guessed = unit == u.unit;
       double s = guessed ? u.confidence : 1.0 - u.confidence;
+      // Radians written: a rotation vector is as likely as Euler angles.
+      if (u.written && unit == AngleUnit::Radians) s = 0.65;
       if (u.written && !guessed) continue;
       if (unit == prefs.unit && !u.written) s += kHouseBonus;
       e.score = 0.85 * s * hint_e;
@@ -379,7 +381,7 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
       rvr.layout = unit_name(vu);
       rvr.rotation = r.value();
       const double len = rv.norm();
-      double s = len <= M_PI + 1e-12 ? 0.45 : 0.1;
+      double s = len <= M_PI + 1e-12 ? (u.written ? 0.6 : 0.45) : 0.1;
       if (u.unit == AngleUnit::Degrees && !u.written) s *= 0.4;
       rvr.score = 0.85 * s * hint_v;
       rvr.why = "three numbers read as a rotation vector (axis times angle) of length " + fmt(len * kDeg, 6) +
