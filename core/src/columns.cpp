@@ -11,6 +11,7 @@
 #include <cctype>
 #include <charconv>
 #include <cmath>
+#include <cstdint>
 #include <cstring>
 #include <fstream>
 
@@ -84,12 +85,79 @@ std::vector<std::string_view> split_fields(std::string_view l, char delim) {
   return out;
 }
 
+/// Exact powers of ten up to 1e22 (the largest exactly representable in a double).
+constexpr double kPow10[23] = {1e0,  1e1,  1e2,  1e3,  1e4,  1e5,  1e6,  1e7,  1e8,  1e9,  1e10, 1e11,
+                               1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
+
+// The common case "[-]digits[.digits]" with at most 15 significant digits, by Clinger's fast
+// path (Clinger 1990, "How to Read Floating Point Numbers Accurately", PLDI): the digits as
+// an exact integer m < 2^53 and the exact power 10^k, k <= 22, so m / 10^k is one correctly
+// rounded IEEE division: the same double as from_chars. Returns false for anything else
+// (exponents, more digits, nan, inf), which from_chars then reads.
+// Eight ASCII digits at p as a number, or -1 when they are not all digits: the SWAR method
+// of Lemire ("Fast numerical parsing", common practice in CSV readers): three multiplies
+// instead of eight dependent multiply-adds. Little-endian byte order.
+inline std::int64_t eight_digits(const char* p) {
+  std::uint64_t v;
+  std::memcpy(&v, p, 8);
+  if ((((v & 0xF0F0F0F0F0F0F0F0ull) | (((v + 0x0606060606060606ull) & 0xF0F0F0F0F0F0F0F0ull) >> 4)) !=
+       0x3333333333333333ull)) {
+    return -1;
+  }
+  v = ((v & 0x0F0F0F0F0F0F0F0Full) * 2561) >> 8;
+  v = ((v & 0x00FF00FF00FF00FFull) * 6553601) >> 16;
+  return static_cast<std::int64_t>(((v & 0x0000FFFF0000FFFFull) * 42949672960001ull) >> 32);
+}
+
+// Reads a number at b (not past e) by the fast path; returns the end of the number, or
+// nullptr when the fast path does not apply.
+inline const char* fast_number(const char* b, const char* e, double* v) {
+  const char* p = b;
+  const bool negative = p < e && *p == '-';
+  if (negative) ++p;
+  std::uint64_t m = 0;
+  int digits = 0;
+  int fraction = 0;
+  const char* start = p;
+  while (p < e && static_cast<unsigned>(*p - '0') < 10) {
+    m = m * 10 + static_cast<unsigned>(*p - '0');
+    ++digits;
+    ++p;
+  }
+  if (p < e && *p == '.') {
+    ++p;
+    while (e - p >= 8 && digits <= 7) {
+      const std::int64_t d8 = eight_digits(p);
+      if (d8 < 0) break;
+      m = m * 100000000u + static_cast<std::uint64_t>(d8);
+      digits += 8;
+      fraction += 8;
+      p += 8;
+    }
+    while (p < e && static_cast<unsigned>(*p - '0') < 10) {
+      m = m * 10 + static_cast<unsigned>(*p - '0');
+      ++digits;
+      ++fraction;
+      ++p;
+    }
+  }
+  if (digits == 0 || digits > 15 || p == start) return nullptr;
+  const double r = static_cast<double>(m) / kPow10[fraction];
+  *v = negative ? -r : r;
+  return p;
+}
+
+bool fast_decimal(const char* b, const char* e, double* v) {
+  return fast_number(b, e, v) == e;
+}
+
 // from_chars on a field, with spaces around it allowed and a decimal comma when asked.
 bool parse_field(const char* b, const char* e, bool decimal_comma, double* v) {
   while (b < e && (*b == ' ' || *b == '\t' || *b == '"')) ++b;
   while (e > b && (e[-1] == ' ' || e[-1] == '\t' || e[-1] == '\r' || e[-1] == '"')) --e;
   if (b < e && *b == '+') ++b;
   if (b == e) return false;
+  if (!decimal_comma && fast_decimal(b, e, v)) return true;
   if (decimal_comma) {
     char buf[64];
     const std::size_t n = static_cast<std::size_t>(e - b);
@@ -133,8 +201,9 @@ int quat_slot(const std::string& n) {
 }
 
 bool time_name(const std::string& n, std::string* unit) {
-  const bool named = n == "t" || n.find("time") != std::string::npos || n.find("stamp") != std::string::npos ||
-                     n.rfind("t_", 0) == 0 || n == "sec" || n == "secs";
+  const bool named = n == "t" || n.find("time") != std::string::npos ||
+                     n.find("stamp") != std::string::npos || n.rfind("t_", 0) == 0 || n == "sec" ||
+                     n == "secs";
   if (!named) return false;
   *unit = "";
   for (const char* u : {"ns", "us", "ms"}) {
@@ -271,11 +340,13 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
     if (m.column_count == 0) m.column_count = r.size();
     if (r.size() == m.column_count) rows.push_back(std::move(r));
   }
-  if (rows.empty()) return Error{"no line of the log is all numbers", static_cast<int>(m.header_lines + 1), 1};
+  if (rows.empty())
+    return Error{"no line of the log is all numbers", static_cast<int>(m.header_lines + 1), 1};
   const std::size_t nc = m.column_count;
   m.columns.resize(nc);
   for (std::size_t c = 0; c < nc; ++c) {
-    m.columns[c].name = c < header.size() && !header[c].empty() ? header[c] : "column " + std::to_string(c + 1);
+    m.columns[c].name =
+        c < header.size() && !header[c].empty() ? header[c] : "column " + std::to_string(c + 1);
     m.columns[c].role = "ignored";
   }
   bool found = false;
@@ -295,7 +366,8 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
       }
       const int s = quat_slot(b);
       if (s >= 0 && q[static_cast<std::size_t>(s)] < 0) q[static_cast<std::size_t>(s)] = static_cast<int>(c);
-      if (b.size() == 2 && b[0] == 'q' && b[1] >= '0' && b[1] <= '4') qn[static_cast<std::size_t>(b[1] - '0')] = static_cast<int>(c);
+      if (b.size() == 2 && b[0] == 'q' && b[1] >= '0' && b[1] <= '4')
+        qn[static_cast<std::size_t>(b[1] - '0')] = static_cast<int>(c);
       if (b.size() == 3 && (b[0] == 'r' || b[0] == 'm') && std::isdigit(static_cast<unsigned char>(b[1])) &&
           std::isdigit(static_cast<unsigned char>(b[2]))) {
         int i = b[1] - '0', j = b[2] - '0';
@@ -308,12 +380,14 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
     }
     if (std::all_of(q.begin(), q.end(), [](int v) { return v >= 0; })) {
       m.form = TrackForm::QuatWxyz;
-      for (int s = 0; s < 4; ++s) m.rotation_columns[static_cast<std::size_t>(s)] = q[static_cast<std::size_t>(s)];
+      for (int s = 0; s < 4; ++s)
+        m.rotation_columns[static_cast<std::size_t>(s)] = q[static_cast<std::size_t>(s)];
       m.notes.push_back("quaternion columns named in the header");
       found = true;
     } else if (qn[0] >= 0 && qn[1] >= 0 && qn[2] >= 0 && qn[3] >= 0 && qn[4] < 0) {
       m.form = TrackForm::QuatWxyz;
-      for (int s = 0; s < 4; ++s) m.rotation_columns[static_cast<std::size_t>(s)] = qn[static_cast<std::size_t>(s)];
+      for (int s = 0; s < 4; ++s)
+        m.rotation_columns[static_cast<std::size_t>(s)] = qn[static_cast<std::size_t>(s)];
       m.notes.push_back("header q0..q3: q0 is the scalar");
       found = true;
     } else if (qn[1] >= 0 && qn[2] >= 0 && qn[3] >= 0 && qn[4] >= 0) {
@@ -324,7 +398,8 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
       m.rotation_columns[1] = last ? qn[1] : qn[2];
       m.rotation_columns[2] = last ? qn[2] : qn[3];
       m.rotation_columns[3] = last ? qn[3] : qn[4];
-      m.notes.push_back("header q1..q4 read with q4 as the scalar; q1 as the scalar is the other usual meaning");
+      m.notes.push_back(
+          "header q1..q4 read with q4 as the scalar; q1 as the scalar is the other usual meaning");
       m.ambiguous = true;
       found = true;
     } else if (std::all_of(r.begin(), r.end(), [](int v) { return v >= 0; })) {
@@ -339,7 +414,8 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
     for (std::size_t c = 0; c + 4 <= nc && !found; ++c) {
       bool unit = true;
       for (const auto& r : rows) {
-        const double n = std::sqrt(r[c] * r[c] + r[c + 1] * r[c + 1] + r[c + 2] * r[c + 2] + r[c + 3] * r[c + 3]);
+        const double n =
+            std::sqrt(r[c] * r[c] + r[c + 1] * r[c + 1] + r[c + 2] * r[c + 2] + r[c + 3] * r[c + 3]);
         if (std::abs(n - 1.0) > kColumnUnitNorm) unit = false;
       }
       if (!unit) continue;
@@ -356,8 +432,9 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
                           " of the four columns is never negative: read as the scalar");
       } else {
         m.ambiguous = true;
-        m.notes.push_back("the data do not show which end of the four columns holds the scalar: the house layout (" +
-                          std::string(scalar_first ? "scalar first" : "scalar last") + ") decides");
+        m.notes.push_back(
+            "the data do not show which end of the four columns holds the scalar: the house layout (" +
+            std::string(scalar_first ? "scalar first" : "scalar last") + ") decides");
       }
       m.form = TrackForm::QuatWxyz;
       const int ci = static_cast<int>(c);
@@ -377,7 +454,8 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
         for (int i = 0; i < 3; ++i) {
           for (int j = 0; j < 3; ++j) a(i, j) = r[c + static_cast<std::size_t>(3 * i + j)];
         }
-        if ((a.transpose() * a - Eigen::Matrix3d::Identity()).norm() > kColumnOrthonormal || a.determinant() < 0) {
+        if ((a.transpose() * a - Eigen::Matrix3d::Identity()).norm() > kColumnOrthonormal ||
+            a.determinant() < 0) {
           ortho = false;
         }
       }
@@ -385,16 +463,18 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
       m.form = prefs.matrix_storage == MatrixStorage::Rows ? TrackForm::MatrixRows : TrackForm::MatrixCols;
       for (int k = 0; k < 9; ++k) m.rotation_columns[static_cast<std::size_t>(k)] = static_cast<int>(c) + k;
       m.ambiguous = true;
-      m.notes.push_back("columns " + std::to_string(c + 1) + ".." + std::to_string(c + 9) +
-                        " are orthonormal on every sampled row: a matrix; rows or columns cannot be told apart "
-                        "(each is the other's inverse), the house storage decides");
+      m.notes.push_back(
+          "columns " + std::to_string(c + 1) + ".." + std::to_string(c + 9) +
+          " are orthonormal on every sampled row: a matrix; rows or columns cannot be told apart "
+          "(each is the other's inverse), the house storage decides");
       found = true;
     }
   }
   if (!found) {
-    return Error{"no rotation columns found: no header names them and no four adjacent columns have unit norm "
-                 "(nor nine an orthonormal matrix)",
-                 static_cast<int>(m.header_lines + 1), 1};
+    return Error{
+        "no rotation columns found: no header names them and no four adjacent columns have unit norm "
+        "(nor nine an orthonormal matrix)",
+        static_cast<int>(m.header_lines + 1), 1};
   }
   const std::size_t used = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw ? 4 : 9;
   auto is_rotation = [&](std::size_t c) {
@@ -424,7 +504,8 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
     m.time_scale = unit_of(m.time_unit);
     m.columns[static_cast<std::size_t>(m.time_column)].role = "time (" + m.time_unit + ")";
   }
-  static constexpr const char* kQuatRoles[4] = {"quaternion w", "quaternion x", "quaternion y", "quaternion z"};
+  static constexpr const char* kQuatRoles[4] = {"quaternion w", "quaternion x", "quaternion y",
+                                                "quaternion z"};
   for (std::size_t k = 0; k < used; ++k) {
     const auto c = static_cast<std::size_t>(m.rotation_columns[k]);
     if (used == 4) {
@@ -454,7 +535,8 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
   }
   for (std::size_t k = 0; k < used; ++k) {
     const int c = m.rotation_columns[k];
-    if (c >= 0 && static_cast<std::size_t>(c) < m.column_count) slot_of[static_cast<std::size_t>(c)] = static_cast<int>(k) + 1;
+    if (c >= 0 && static_cast<std::size_t>(c) < m.column_count)
+      slot_of[static_cast<std::size_t>(c)] = static_cast<int>(k) + 1;
   }
   const char* const begin = text.data();
   const char* const end = begin + text.size();
@@ -462,7 +544,8 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
   // Estimate of the row count from the first line's length, to reserve once.
   {
     const void* nl = std::memchr(p, '\n', static_cast<std::size_t>(end - p));
-    const std::size_t first_len = nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - p) + 1 : text.size();
+    const std::size_t first_len =
+        nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - p) + 1 : text.size();
     const std::size_t estimate = text.size() / std::max<std::size_t>(first_len, 8) + 16;
     track.time_s.reserve(estimate);
     track.qw.reserve(estimate);
@@ -511,6 +594,19 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
         fe = f;
         while (fe < le && *fe != ' ' && *fe != '\t') ++fe;
       } else {
+        // The fast path: a plain number that ends at the delimiter or the line end.
+        if (field < m.column_count && !m.decimal_comma) {
+          const int slot = slot_of[field];
+          if (slot >= 0) {
+            const char* ne = fast_number(f, le, &values[slot]);
+            if (ne && (ne == le || *ne == delim)) {
+              ++field;
+              if (ne >= le) break;
+              f = ne + 1;
+              continue;
+            }
+          }
+        }
         fe = static_cast<const char*>(std::memchr(f, delim, static_cast<std::size_t>(le - f)));
         if (!fe) fe = le;
       }
@@ -580,11 +676,11 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
   return track;
 }
 
-Expected<Track> read_track_file(const std::string& path, const ColumnMapping& mapping, const ReadProgress& progress,
-                                const std::atomic<bool>* cancel) {
+Expected<Track> read_track_file(const std::string& path, const ColumnMapping& mapping,
+                                const ReadProgress& progress, const std::atomic<bool>* cancel) {
   const int fd = ::open(path.c_str(), O_RDONLY);
   if (fd < 0) return Error{"cannot open '" + path + "': " + std::strerror(errno)};
-  struct stat st{};
+  struct stat st {};
   if (::fstat(fd, &st) != 0) {
     ::close(fd);
     return Error{"cannot read '" + path + "': " + std::strerror(errno)};
@@ -598,7 +694,8 @@ Expected<Track> read_track_file(const std::string& path, const ColumnMapping& ma
   ::close(fd);
   if (data == MAP_FAILED) return Error{"cannot map '" + path + "' into memory: " + std::strerror(errno)};
   ::madvise(data, size, MADV_SEQUENTIAL);
-  auto track = read_track_text(std::string_view(static_cast<const char*>(data), size), mapping, progress, cancel);
+  auto track =
+      read_track_text(std::string_view(static_cast<const char*>(data), size), mapping, progress, cancel);
   ::munmap(data, size);
   return track;
 }

@@ -26,21 +26,35 @@ std::string lower(std::string_view s) {
 enum class Role {
   Unknown,
   Ignored,  // time, id, sequence number, frame name
-  W, X, Y, Z,
-  Q0, Q1, Q2, Q3, Q4,
-  Roll, Pitch, Yaw,
-  Rx, Ry, Rz,
-  Axis, Angle,
-  Tx, Ty, Tz,
+  W,
+  X,
+  Y,
+  Z,
+  Q0,
+  Q1,
+  Q2,
+  Q3,
+  Q4,
+  Roll,
+  Pitch,
+  Yaw,
+  Rx,
+  Ry,
+  Rz,
+  Axis,
+  Angle,
+  Tx,
+  Ty,
+  Tz,
   Translation,  // a name for three translation numbers ("position", "t")
   HintOnly,     // a name for a group of numbers: see hint_of
 };
 
 struct Field {
   const TextToken* key = nullptr;
-  std::string path;     // section prefixes and key, lower case, '.'-joined
-  std::string prefix;   // the path without its last component
-  std::string name;     // the last component with its own prefix ("q_", "quat_") removed
+  std::string path;    // section prefixes and key, lower case, '.'-joined
+  std::string prefix;  // the path without its last component
+  std::string name;    // the last component with its own prefix ("q_", "quat_") removed
   std::vector<NumberToken> values;
 };
 
@@ -81,8 +95,9 @@ Role role_of(const std::string& n) {
   if (any_of(n, {"position", "translation", "pos", "t", "trans", "location", "origin", "offset"})) {
     return Role::Translation;
   }
-  if (any_of(n, {"time", "t_s", "stamp", "timestamp", "secs", "nsecs", "sec", "nanosec", "seq", "id", "frame",
-                 "frame_id", "index", "idx", "n_sample", "sample", "utc", "date", "ts", "header"})) {
+  if (any_of(n, {"time",     "t_s",    "stamp", "timestamp", "secs",     "nsecs", "sec",
+                 "nanosec",  "seq",    "id",    "frame",     "frame_id", "index", "idx",
+                 "n_sample", "sample", "utc",   "date",      "ts",       "header"})) {
     return Role::Ignored;
   }
   return Role::Unknown;
@@ -94,11 +109,14 @@ Hint hint_of(const std::string& n) {
   if (any_of(s, {"rpy"})) return Hint::EulerRpy;
   if (any_of(s, {"ypr", "hpr"})) return Hint::EulerYpr;
   if (has("euler") || any_of(s, {"angles", "attitude_deg"})) return Hint::Euler;
-  if (has("rotvec") || has("rvec") || has("rotation_vector") || has("rotationvector")) return Hint::RotationVector;
+  if (has("rotvec") || has("rvec") || has("rotation_vector") || has("rotationvector"))
+    return Hint::RotationVector;
   if (has("axisangle") || has("axis_angle") || has("angleaxis") || has("angle_axis")) return Hint::AxisAngle;
   if (has("quat") || any_of(s, {"q", "orientation", "attitude", "rotation", "rot"})) return Hint::Quaternion;
-  if (has("matrix") || has("mat3") || has("dcm") || any_of(s, {"r", "rotation_matrix", "c"})) return Hint::Matrix;
-  if (has("transform") || has("pose") || has("mat4") || any_of(s, {"t_world_body", "tf", "m"})) return Hint::Transform;
+  if (has("matrix") || has("mat3") || has("dcm") || any_of(s, {"r", "rotation_matrix", "c"}))
+    return Hint::Matrix;
+  if (has("transform") || has("pose") || has("mat4") || any_of(s, {"t_world_body", "tf", "m"}))
+    return Hint::Transform;
   return Hint::None;
 }
 
@@ -228,8 +246,8 @@ class Structure {
     for (const TextToken& tok : t_) {
       if (tok.number.offset < first || tok.number.offset > last) continue;
       if (tok.kind == TokenKind::Number) ++current;
-      if ((tok.kind == TokenKind::Close || tok.kind == TokenKind::Semicolon || tok.kind == TokenKind::Newline ||
-           tok.kind == TokenKind::Open) &&
+      if ((tok.kind == TokenKind::Close || tok.kind == TokenKind::Semicolon ||
+           tok.kind == TokenKind::Newline || tok.kind == TokenKind::Open) &&
           current > 0) {
         counts.push_back(current);
         current = 0;
@@ -338,7 +356,8 @@ class Structure {
       depth_ = saved_depth;
       return false;
     }
-    for (std::size_t k = 0; k < names.size(); ++k) add_field(*names[k], std::string(names[k]->text), {c.numbers[k]});
+    for (std::size_t k = 0; k < names.size(); ++k)
+      add_field(*names[k], std::string(names[k]->text), {c.numbers[k]});
     *pi = end;
     return true;
   }
@@ -452,7 +471,9 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
     }
     return s;
   };
-  for (const auto& [prefix, g] : groups) {
+  for (const auto& entry : groups) {
+    const std::string& prefix = entry.first;
+    const std::map<Role, const Field*>& g = entry.second;
     auto has = [&](Role r) { return g.count(r) > 0; };
     auto v = [&](Role r) { return val(g.at(r)).value; };
     if (has(Role::Tx) && has(Role::Ty) && has(Role::Tz)) {
@@ -491,8 +512,9 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
       const double a = v(Role::Q1), b = v(Role::Q2), c = v(Role::Q3), d = v(Role::Q4);
       for (int k = 0; k < 2; ++k) {
         const bool last = k == 0;
-        auto r = quaternion_reading(last ? std::array<double, 4>{d, a, b, c} : std::array<double, 4>{a, b, c, d},
-                                    val(g.at(Role::Q1)));
+        auto r =
+            quaternion_reading(last ? std::array<double, 4>{d, a, b, c} : std::array<double, 4>{a, b, c, d},
+                               val(g.at(Role::Q1)));
         if (!r) {
           out.error = r.error();
           break;
@@ -504,7 +526,8 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
         if ((prefs.quat_layout == QuatLayout::ScalarLast) == last) q.score += kHouseBonus;
         q.why = last ? "labels q1..q4 read with q4 as the scalar (the usual spacecraft meaning)"
                      : "labels q1..q4 read with q1 as the scalar (numbered from 1, scalar first)";
-        q.warnings.push_back("q1..q4 has two usual meanings (q4 or q1 the scalar): check which one the source uses");
+        q.warnings.push_back(
+            "q1..q4 has two usual meanings (q4 or q1 the scalar): check which one the source uses");
         out.readings.push_back(q);
       }
       out.names.push_back(names_of(g));
@@ -523,12 +546,14 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
                                has(Role::Yaw) ? v(Role::Yaw) : 0.0};
       Eigen::Vector3d a;
       for (int k = 0; k < 3; ++k) a(k) = about[static_cast<int>(conv.axes[static_cast<std::size_t>(k)])];
-      for (AngleUnit unit : {u.unit, u.unit == AngleUnit::Degrees ? AngleUnit::Radians : AngleUnit::Degrees}) {
+      for (AngleUnit unit :
+           {u.unit, u.unit == AngleUnit::Degrees ? AngleUnit::Radians : AngleUnit::Degrees}) {
         if (u.written && unit != u.unit) break;
         Reading e = euler_reading(conv, a, unit);
         e.score = unit == u.unit ? kScoreDecided * (u.written ? 1.0 : 0.5 + 0.5 * u.confidence) : 0.3;
-        e.why = "the labels " + names_of(g) + " name the angles (roll about x, pitch about y, yaw about z), read " +
-                conv.name() + " in " + (unit == AngleUnit::Degrees ? "degrees" : "radians") + "; " +
+        e.why = "the labels " + names_of(g) +
+                " name the angles (roll about x, pitch about y, yaw about z), read " + conv.name() + " in " +
+                (unit == AngleUnit::Degrees ? "degrees" : "radians") + "; " +
                 (unit == u.unit ? u.why : "the other unit");
         if (!(has(Role::Roll) && has(Role::Pitch) && has(Role::Yaw))) {
           e.warnings.push_back("not all three angles are labelled: the missing ones were read as 0");
@@ -551,7 +576,8 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
           r.score *= 1.6;
         } else if (r.kind == IntakeKind::Euler) {
           Eigen::Vector3d a;
-          for (int k = 0; k < 3; ++k) a(k) = n[static_cast<std::size_t>(conv.axes[static_cast<std::size_t>(k)])].value;
+          for (int k = 0; k < 3; ++k)
+            a(k) = n[static_cast<std::size_t>(conv.axes[static_cast<std::size_t>(k)])].value;
           Reading e = euler_reading(conv, a, r.unit);
           e.score = r.score;
           e.warnings = r.warnings;
@@ -614,7 +640,9 @@ struct Window {
   double factor = 1.0;
 };
 
-bool is_shape(std::size_t n) { return n == 3 || n == 4 || n == 9 || n == 12 || n == 16; }
+bool is_shape(std::size_t n) {
+  return n == 3 || n == 4 || n == 9 || n == 12 || n == 16;
+}
 
 std::vector<Window> windows(std::size_t n) {
   std::vector<Window> out;
@@ -637,7 +665,8 @@ Error count_error(std::string_view text, const std::vector<NumberToken>& numbers
   const std::string msg = "got " + std::to_string(numbers.size()) +
                           " numbers; a pose is 3 (Euler angles or a rotation vector), 4 (a quaternion or "
                           "axis-angle), 9 (a matrix), 12 or 16 (a transform)";
-  if (numbers.size() > 16) return Error{msg + " (the 17th number is here)", numbers[16].line, numbers[16].column};
+  if (numbers.size() > 16)
+    return Error{msg + " (the 17th number is here)", numbers[16].line, numbers[16].column};
   if (!numbers.empty()) {
     const NumberToken& last = numbers.back();
     return Error{msg + " (the last number is here)", last.line, last.column};
@@ -708,11 +737,13 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
         if (first) {
           Reading r = first.value();
           const TrackForm f = mapping.value().form;
-          r.kind = f == TrackForm::QuatWxyz || f == TrackForm::QuatXyzw ? IntakeKind::Quaternion : IntakeKind::Matrix;
+          r.kind = f == TrackForm::QuatWxyz || f == TrackForm::QuatXyzw ? IntakeKind::Quaternion
+                                                                        : IntakeKind::Matrix;
           r.layout = track_form_name(f);
           r.as = parse_reading_kind(track_form_name(f));
           r.score = mapping.value().ambiguous ? 0.6 : 0.9;
-          r.why = "the first of " + std::to_string(tr.size()) + " rows of a track, read as " + track_form_name(f);
+          r.why =
+              "the first of " + std::to_string(tr.size()) + " rows of a track, read as " + track_form_name(f);
           r.warnings.clear();
           for (const BadRow& b : tr.bad_rows) {
             r.warnings.push_back("line " + std::to_string(b.line) + ": " + b.reason);
@@ -785,7 +816,8 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
         if (w.front > 0) {
           r.warnings.push_back("the first " + std::string(w.front == 1 ? "number" : "two numbers") +
                                " (line " + std::to_string(n.front().line) + ", column " +
-                               std::to_string(n.front().column) + ") read as a time stamp or index, not used");
+                               std::to_string(n.front().column) +
+                               ") read as a time stamp or index, not used");
         }
         if (w.back > 0) {
           r.warnings.push_back("the last number (line " + std::to_string(n.back().line) + ", column " +

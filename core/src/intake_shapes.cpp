@@ -26,7 +26,9 @@ constexpr double kHomogeneousRowTolerance = 1e-6;
 /// Angles within this of a multiple of 15 degrees count as "round".
 constexpr double kRoundAngleTolerance = 1e-9;
 
-double clamp01(double s) { return std::min(1.0, std::max(0.0, s)); }
+double clamp01(double s) {
+  return std::min(1.0, std::max(0.0, s));
+}
 
 Error placed(const Error& e, const NumberToken& at) {
   Error out = e;
@@ -43,9 +45,13 @@ std::optional<Error> non_finite(const std::vector<NumberToken>& numbers) {
   return std::nullopt;
 }
 
-double to_rad(double v, AngleUnit u) { return u == AngleUnit::Degrees ? v / kDeg : v; }
+double to_rad(double v, AngleUnit u) {
+  return u == AngleUnit::Degrees ? v / kDeg : v;
+}
 
-std::string unit_name(AngleUnit u) { return u == AngleUnit::Degrees ? "degrees" : "radians"; }
+std::string unit_name(AngleUnit u) {
+  return u == AngleUnit::Degrees ? "degrees" : "radians";
+}
 
 // Reads a matrix with its checks; warnings for a small defect.
 Expected<Reading> matrix_reading(const Eigen::Matrix3d& m, const NumberToken& place) {
@@ -136,7 +142,8 @@ void add_transform_pair(std::vector<Reading>* out, const std::vector<NumberToken
     } else {  // column-major: each group of 3 (or 4) is a column; the translation comes last
       const std::size_t stride = full ? 4 : 3;
       for (int i = 0; i < 3; ++i) {
-        for (int j = 0; j < 3; ++j) m(i, j) = v(stride * static_cast<std::size_t>(j) + static_cast<std::size_t>(i));
+        for (int j = 0; j < 3; ++j)
+          m(i, j) = v(stride * static_cast<std::size_t>(j) + static_cast<std::size_t>(i));
         trans(i) = v(stride * 3 + static_cast<std::size_t>(i));
       }
       if (full) bottom_defect = std::abs(v(3)) + std::abs(v(7)) + std::abs(v(11)) + std::abs(v(15) - 1.0);
@@ -256,8 +263,8 @@ Reading euler_reading(const EulerConvention& convention, const Eigen::Vector3d& 
   out.unit = unit;
   out.as = ReadingKind::Euler;
   out.layout = convention.name() + ", " + unit_name(unit);
-  out.rotation = from_euler(convention, Eigen::Vector3d(to_rad(angles(0), unit), to_rad(angles(1), unit),
-                                                        to_rad(angles(2), unit)));
+  out.rotation = from_euler(
+      convention, Eigen::Vector3d(to_rad(angles(0), unit), to_rad(angles(1), unit), to_rad(angles(2), unit)));
   return out;
 }
 
@@ -298,7 +305,8 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
                " number, read as the scalar, is the larger end (a modest turn has a large scalar)";
       } else if (other > lead + 0.2) {
         s = 0.46;
-        slot = std::string("the ") + (first ? "last" : "first") + " number is the larger end, which suggests it is the scalar";
+        slot = std::string("the ") + (first ? "last" : "first") +
+               " number is the larger end, which suggests it is the scalar";
       } else {
         slot = "the numbers do not show which end holds the scalar";
       }
@@ -333,7 +341,8 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
         if (!axis_unit) {
           a.warnings.push_back("the axis has length " + fmt(an, 7) + ", not 1: it was normalised");
         }
-        if (!u.written) a.warnings.push_back("no unit is written: the angle was read in " + unit_name(u.unit));
+        if (!u.written)
+          a.warnings.push_back("no unit is written: the angle was read in " + unit_name(u.unit));
         out.push_back(a);
       }
     }
@@ -386,7 +395,8 @@ std::vector<Reading> shape_readings(const std::vector<NumberToken>& t, Hint hint
       rvr.score = 0.85 * s * hint_v;
       rvr.why = "three numbers read as a rotation vector (axis times angle) of length " + fmt(len * kDeg, 6) +
                 " degrees";
-      if (len > M_PI + 1e-12) rvr.warnings.push_back("the vector is longer than pi: an unusual rotation vector");
+      if (len > M_PI + 1e-12)
+        rvr.warnings.push_back("the vector is longer than pi: an unusual rotation vector");
       out.push_back(rvr);
     }
   } else if (n == 9) {
@@ -414,8 +424,9 @@ void finish_readings(std::vector<Reading>* readings, const IntakePreferences& pr
     for (std::size_t i = 1; i < readings->size(); ++i) {
       const Reading& b = (*readings)[i];
       if (a.score - b.score >= kAmbiguityGap) break;
-      const bool same_rotation = geodesic_angle(a.rotation, b.rotation) < 1e-9 &&
-                                 (!a.translation || !b.translation || a.translation->isApprox(*b.translation));
+      const bool same_rotation =
+          geodesic_angle(a.rotation, b.rotation) < 1e-9 &&
+          (!a.translation || !b.translation || a.translation->isApprox(*b.translation));
       if (!same_rotation) {
         *ambiguous = true;
         break;
@@ -493,7 +504,8 @@ std::string describe_body_axes(const Rotation& world_R_body, const Eigen::Vector
       if (std::abs(elevation) >= kAlongDeg) {
         s += ", " + degrees_words(std::abs(elevation)) + (elevation > 0 ? " up" : " down");
       }
-      if (horizontal >= kAlongDeg) s += ", " + degrees_words(horizontal) + " toward " + signed_axis(side, v(side));
+      if (horizontal >= kAlongDeg)
+        s += ", " + degrees_words(horizontal) + " toward " + signed_axis(side, v(side));
     }
     if (!out.empty()) out += "; ";
     out += s;
@@ -559,14 +571,15 @@ std::string intake_table(const IntakeResult& result, int precision) {
   int index = 1;
   for (const Reading& r : result.readings) {
     const Eigen::Quaterniond q = r.rotation.quaternion();
-    s << "\n" << index++ << ". " << intake_kind_name(r.kind) << (r.layout.empty() ? "" : " (" + r.layout + ")")
+    s << "\n"
+      << index++ << ". " << intake_kind_name(r.kind) << (r.layout.empty() ? "" : " (" + r.layout + ")")
       << "  score " << fmt(r.score, 3);
     if (r.as) s << "  [--as " << reading_kind_name(*r.as) << "]";
     s << "\n   why: " << r.why << "\n   quaternion w x y z: " << fmt(q.w(), precision) << " "
       << fmt(q.x(), precision) << " " << fmt(q.y(), precision) << " " << fmt(q.z(), precision) << "\n";
     if (r.translation) {
-      s << "   translation: " << fmt(r.translation->x(), precision) << " " << fmt(r.translation->y(), precision)
-        << " " << fmt(r.translation->z(), precision) << "\n";
+      s << "   translation: " << fmt(r.translation->x(), precision) << " "
+        << fmt(r.translation->y(), precision) << " " << fmt(r.translation->z(), precision) << "\n";
     }
     s << "   " << r.body_axes << "\n";
     for (const std::string& w : r.warnings) s << "   warning: " << w << "\n";

@@ -43,7 +43,9 @@ struct Cursor {
 constexpr std::string_view kUnicodeMinus = "\xE2\x88\x92";  // U+2212
 constexpr std::string_view kDegreeSign = "\xC2\xB0";        // U+00B0
 
-bool is_space(unsigned char c) { return c == ' ' || c == '\t' || c == '\r'; }
+bool is_space(unsigned char c) {
+  return c == ' ' || c == '\t' || c == '\r';
+}
 
 // Characters that end a word.
 bool is_separator(unsigned char c) {
@@ -51,7 +53,9 @@ bool is_separator(unsigned char c) {
          c == '{' || c == '}' || c == ':' || c == '=' || c == '"' || c == '\'';
 }
 
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
+bool is_digit(char c) {
+  return c >= '0' && c <= '9';
+}
 
 bool word_is(std::string_view word, std::string_view lower) {
   if (word.size() != lower.size()) return false;
@@ -240,9 +244,10 @@ std::vector<TextToken> scan_tokens(std::string_view text, const ScanOptions& opt
         TextToken t = start_token(TokenKind::Word);
         const std::size_t close = text.find(static_cast<char>(ch), c.pos + 1);
         const std::size_t nl = text.find('\n', c.pos + 1);
-        const std::size_t end = (close == std::string_view::npos || (nl != std::string_view::npos && nl < close))
-                                    ? std::min(nl, text.size())
-                                    : close + 1;
+        const std::size_t end =
+            (close == std::string_view::npos || (nl != std::string_view::npos && nl < close))
+                ? std::min(nl, text.size())
+                : close + 1;
         t.quoted = true;
         t.number.length = end - c.pos;
         const std::size_t inner_end = close == end - 1 ? end - 1 : end;
@@ -308,7 +313,8 @@ std::vector<TextToken> scan_tokens(std::string_view text, const ScanOptions& opt
     if (!w.empty() && is_digit(w[0])) {
       // A clock time runs through ':' separators: take it whole.
       const std::size_t ts = timestamp_length(text.substr(c.pos));
-      if (ts > 0 && (c.pos + ts == text.size() || is_separator(static_cast<unsigned char>(text[c.pos + ts])))) {
+      if (ts > 0 &&
+          (c.pos + ts == text.size() || is_separator(static_cast<unsigned char>(text[c.pos + ts])))) {
         TextToken t = start_token(TokenKind::Word);
         t.timestamp = true;
         finish(t, ts);
@@ -362,8 +368,8 @@ Expected<std::vector<NumberToken>> scan_numbers(std::string_view text, const Sca
     switch (t.kind) {
       case TokenKind::Number:
         if (t.imaginary) {
-          return Error{"'" + std::string(t.text) + "' is a quaternion term, not a plain number", t.number.line,
-                       t.number.column};
+          return Error{"'" + std::string(t.text) + "' is a quaternion term, not a plain number",
+                       t.number.line, t.number.column};
         }
         out.push_back(t.number);
         break;

@@ -3,6 +3,8 @@
 // with the place it must name), plus the body-axes sentence and the column finder.
 #include "attiscope/core/intake.hpp"
 
+#include <charconv>
+#include <cstring>
 #include <fstream>
 #include <sstream>
 
@@ -92,7 +94,9 @@ Rotation expected_rotation(const std::string& spec) {
   return r.ok() ? r.value().rotation : Rotation();
 }
 
-std::string label(const Reading& r) { return intake_kind_name(r.kind) + " " + r.layout; }
+std::string label(const Reading& r) {
+  return intake_kind_name(r.kind) + " " + r.layout;
+}
 
 TEST(IntakeTest, CorpusHasEveryFormAndEightyEntries) {
   const auto corpus = load_corpus();
@@ -100,43 +104,48 @@ TEST(IntakeTest, CorpusHasEveryFormAndEightyEntries) {
 }
 
 void CheckEntry(const Entry& e) {
-    SCOPED_TRACE(e.name + ":\n" + e.text);
-    auto res = read_pasted(e.text);
-    ASSERT_TRUE(res.ok()) << res.error().describe();
-    const IntakeResult& r = res.value();
-    ASSERT_FALSE(r.readings.empty());
-    const std::string top = label(r.readings.front());
-    EXPECT_NE(std::find(e.top.begin(), e.top.end(), top), e.top.end()) << "top reading was " << top;
-    // Scores are in [0, 1] and sorted best first.
-    for (std::size_t i = 0; i < r.readings.size(); ++i) {
-      EXPECT_GE(r.readings[i].score, 0.0);
-      EXPECT_LE(r.readings[i].score, 1.0);
-      if (i > 0) EXPECT_LE(r.readings[i].score, r.readings[i - 1].score);
-      EXPECT_FALSE(r.readings[i].why.empty());
-      EXPECT_FALSE(r.readings[i].body_axes.empty());
+  SCOPED_TRACE(e.name + ":\n" + e.text);
+  auto res = read_pasted(e.text);
+  ASSERT_TRUE(res.ok()) << res.error().describe();
+  const IntakeResult& r = res.value();
+  ASSERT_FALSE(r.readings.empty());
+  const std::string top = label(r.readings.front());
+  EXPECT_NE(std::find(e.top.begin(), e.top.end(), top), e.top.end()) << "top reading was " << top;
+  // Scores are in [0, 1] and sorted best first.
+  for (std::size_t i = 0; i < r.readings.size(); ++i) {
+    EXPECT_GE(r.readings[i].score, 0.0);
+    EXPECT_LE(r.readings[i].score, 1.0);
+    if (i > 0) {
+      EXPECT_LE(r.readings[i].score, r.readings[i - 1].score);
     }
-    if (!e.ambiguous.empty()) EXPECT_EQ(r.ambiguous, e.ambiguous == "yes");
-    // The rotation of the reading the corpus names first (it is the top one when the text
-    // decides; in an ambiguous set it must be listed).
-    const Reading* named = nullptr;
-    for (const Reading& rd : r.readings) {
-      if (label(rd) == e.top.front()) {
-        named = &rd;
-        break;
-      }
+    EXPECT_FALSE(r.readings[i].why.empty());
+    EXPECT_FALSE(r.readings[i].body_axes.empty());
+  }
+  if (!e.ambiguous.empty()) {
+    EXPECT_EQ(r.ambiguous, e.ambiguous == "yes");
+  }
+  // The rotation of the reading the corpus names first (it is the top one when the text
+  // decides; in an ambiguous set it must be listed).
+  const Reading* named = nullptr;
+  for (const Reading& rd : r.readings) {
+    if (label(rd) == e.top.front()) {
+      named = &rd;
+      break;
     }
-    ASSERT_NE(named, nullptr) << "no reading " << e.top.front();
-    const bool rounded = e.name.find("numpy") != std::string::npos || e.name.find("right-aligned") != std::string::npos ||
-                         e.name.find("small-defect") != std::string::npos;
-    EXPECT_TRUE(test::RotationNear(named->rotation, expected_rotation(e.rotation),
-                                   rounded ? kRoundedTolerance : kCorpusTolerance));
-    if (!e.translation.empty()) {
-      std::stringstream ss(e.translation);
-      Eigen::Vector3d t;
-      ss >> t.x() >> t.y() >> t.z();
-      ASSERT_TRUE(named->translation.has_value());
-      EXPECT_TRUE(test::MatrixNear(*named->translation, t, kCorpusTolerance));
-    }
+  }
+  ASSERT_NE(named, nullptr) << "no reading " << e.top.front();
+  const bool rounded = e.name.find("numpy") != std::string::npos ||
+                       e.name.find("right-aligned") != std::string::npos ||
+                       e.name.find("small-defect") != std::string::npos;
+  EXPECT_TRUE(test::RotationNear(named->rotation, expected_rotation(e.rotation),
+                                 rounded ? kRoundedTolerance : kCorpusTolerance));
+  if (!e.translation.empty()) {
+    std::stringstream ss(e.translation);
+    Eigen::Vector3d t;
+    ss >> t.x() >> t.y() >> t.z();
+    ASSERT_TRUE(named->translation.has_value());
+    EXPECT_TRUE(test::MatrixNear(*named->translation, t, kCorpusTolerance));
+  }
 }
 
 TEST(IntakeTest, CorpusTopReadingAndRotation) {
@@ -225,7 +234,8 @@ TEST(ColumnsTest, StatisticsWithoutHeader) {
 }
 
 TEST(ColumnsTest, BadRowsAreListedWithLineNumbers) {
-  const std::string text = "time,qw,qx,qy,qz\n0,1,0,0,0\n0.1,1,0,zero,0\n0.2,1,0,0\n0.3,0,0,0,0\n0.4,1,0,0,0\n";
+  const std::string text =
+      "time,qw,qx,qy,qz\n0,1,0,0,0\n0.1,1,0,zero,0\n0.2,1,0,0\n0.3,0,0,0,0\n0.4,1,0,0,0\n";
   auto m = find_columns(text);
   ASSERT_TRUE(m.ok());
   auto track = read_track_text(text, m.value());
@@ -259,9 +269,57 @@ TEST(ColumnsTest, MatrixColumnsByStatistics) {
   ASSERT_EQ(track.value().size(), 20u);
   for (std::size_t i = 0; i < 20; ++i) {
     const Track& t = track.value();
-    EXPECT_TRUE(test::RotationNear(Rotation(Eigen::Quaterniond(t.qw[i], t.qx[i], t.qy[i], t.qz[i])), truth[i], 1e-12))
+    EXPECT_TRUE(
+        test::RotationNear(Rotation(Eigen::Quaterniond(t.qw[i], t.qx[i], t.qy[i], t.qz[i])), truth[i], 1e-12))
         << "seed " << test::kSeed << " row " << i;
   }
+}
+
+}  // namespace
+}  // namespace attiscope
+
+namespace attiscope {
+namespace {
+
+TEST(ColumnsTest, FastNumberPathIsBitIdenticalToFromChars) {
+  // The bulk reader's fast path (Clinger's exact case) must give the very double that
+  // std::from_chars gives for the same text.
+  std::mt19937 rng(test::kSeed);
+  std::uniform_real_distribution<double> mag(-6.0, 6.0);
+  std::uniform_int_distribution<int> prec(0, 17);
+  std::vector<std::string> fields;
+  std::string text;
+  for (int row = 0; row < 4000; ++row) {
+    text += std::to_string(row);
+    for (int k = 0; k < 4; ++k) {
+      const double v = (rng() % 2 ? -1.0 : 1.0) * std::pow(10.0, mag(rng)) * (k == 0 ? 1.0 : 0.3);
+      char buf[64];
+      std::snprintf(buf, sizeof buf, "%.*f", prec(rng), v);
+      fields.push_back(buf);
+      text += std::string(",") + buf;
+    }
+    text += "\n";
+  }
+  ColumnMapping m;
+  m.delimiter = ',';
+  m.column_count = 5;
+  m.time_column = 0;
+  m.rotation_columns = {1, 2, 3, 4, 0, 0, 0, 0, 0};
+  auto track = read_track_text(text, m);
+  ASSERT_TRUE(track.ok());
+  const Track& t = track.value();
+  std::size_t row = 0;
+  std::size_t f = 0;
+  for (std::size_t i = 0; i < t.size(); ++i, ++row) {
+    const std::vector<double>* cols[4] = {&t.qw, &t.qx, &t.qy, &t.qz};
+    for (int k = 0; k < 4; ++k, ++f) {
+      double ref = 0;
+      std::from_chars(fields[f].data(), fields[f].data() + fields[f].size(), ref);
+      EXPECT_EQ(std::memcmp(&ref, &(*cols[k])[i], sizeof ref), 0)
+          << fields[f] << " seed " << test::kSeed << " row " << row;
+    }
+  }
+  EXPECT_EQ(t.bad_rows.size(), 0u);
 }
 
 }  // namespace

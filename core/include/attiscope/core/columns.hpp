@@ -37,8 +37,8 @@ std::string track_form_name(TrackForm f);
 
 /// Where the time and the rotation are in each row of a log.
 struct ColumnMapping {
-  char delimiter = ',';       ///< ',', ';', '\t', or ' ' (runs of spaces and tabs)
-  bool decimal_comma = false; ///< "0,5" means 0.5 (only with ';' or '\t' delimiters)
+  char delimiter = ',';          ///< ',', ';', '\t', or ' ' (runs of spaces and tabs)
+  bool decimal_comma = false;    ///< "0,5" means 0.5 (only with ';' or '\t' delimiters)
   std::size_t header_lines = 0;  ///< lines at the top that are not data
   std::size_t column_count = 0;  ///< fields per data row
   int time_column = -1;          ///< -1: no time column (time is the sample index)

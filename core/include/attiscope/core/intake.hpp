@@ -68,9 +68,9 @@ struct Reading {
   double score = 0.0;  ///< in [0, 1]; near 1 when labels decide
   std::string why;     ///< one sentence
   std::vector<std::string> warnings;
-  Rotation rotation;                          ///< world_R_body
-  std::optional<Eigen::Vector3d> translation; ///< transforms and labelled positions
-  std::string body_axes;                      ///< "body x points along world +y, 5 degrees up; ..."
+  Rotation rotation;                           ///< world_R_body
+  std::optional<Eigen::Vector3d> translation;  ///< transforms and labelled positions
+  std::string body_axes;                       ///< "body x points along world +y, 5 degrees up; ..."
 
   // What the checks found, for display.
   std::optional<double> quaternion_norm;
@@ -85,7 +85,7 @@ struct IntakeResult {
   /// The top two readings are too close for the text to decide (or labels were missing):
   /// the house preference or the order picked the first. Say so to the person.
   bool ambiguous = false;
-  std::string shape;  ///< "4 numbers", "labelled fields qw qx qy qz", "track of 120 lines"...
+  std::string shape;               ///< "4 numbers", "labelled fields qw qx qy qz", "track of 120 lines"...
   std::vector<std::string> notes;  ///< what was ignored (a time stamp, an id, a file name)
   /// Set when the text is several lines holding one pose each; readings then hold the
   /// readings of the first pose.

@@ -47,11 +47,11 @@ enum class TokenKind {
 struct TextToken {
   TokenKind kind = TokenKind::Word;
   NumberToken number;
-  std::string_view text;  ///< the token as written (a quoted word without its quotes)
-  char imaginary = 0;     ///< 'i', 'j' or 'k' for "0.38k"; 0 otherwise
-  bool quoted = false;    ///< a word written in quotes
-  bool timestamp = false; ///< a word that is a date or a clock time ("12:00:01.5", "2026-12-01T...")
-  char bracket = 0;       ///< the bracket character of Open and Close
+  std::string_view text;   ///< the token as written (a quoted word without its quotes)
+  char imaginary = 0;      ///< 'i', 'j' or 'k' for "0.38k"; 0 otherwise
+  bool quoted = false;     ///< a word written in quotes
+  bool timestamp = false;  ///< a word that is a date or a clock time ("12:00:01.5", "2026-12-01T...")
+  char bracket = 0;        ///< the bracket character of Open and Close
 };
 
 struct ScanOptions {
