@@ -719,13 +719,23 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
   ScanOptions scan;
   scan.decimal_comma = looks_like_decimal_commas(text);
   if (scan.decimal_comma) result.notes.push_back("commas between digits were read as decimal commas");
-  const std::vector<TextToken> tokens = scan_tokens(text, scan);
+  // A long text is looked at through its head first: a log need not be tokenised whole.
+  constexpr std::size_t kTrackProbeBytes = 64 * 1024;
+  std::string_view head = text;
+  if (head.size() > kTrackProbeBytes) {
+    head = head.substr(0, kTrackProbeBytes);
+    const auto nl = head.rfind('\n');
+    if (nl != std::string_view::npos) head = head.substr(0, nl + 1);
+  }
+  const bool track_like = looks_like_track(scan_tokens(head, scan));
+  const std::vector<TextToken> tokens =
+      track_like && head.size() < text.size() ? std::vector<TextToken>{} : scan_tokens(text, scan);
 
-  if (looks_like_track(tokens)) {
+  if (track_like) {
     ColumnPreferences cp;
     cp.quat_layout = prefs.quat_layout;
     cp.matrix_storage = prefs.matrix_storage;
-    auto mapping = find_columns(text, cp);
+    auto mapping = find_columns(head, cp);
     if (mapping) {
       auto track = read_track_text(text, mapping.value());
       if (track && track.value().size() > 0) {
@@ -758,6 +768,10 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
     }
   }
 
+  if (track_like && tokens.empty() && !text.empty()) {
+    return Error{"this long text looks like a log, but its columns were not found: see attiscope track", 1,
+                 1};
+  }
   Structure s(tokens);
   s.run();
   for (const std::string& n : s.ignored) result.notes.push_back("ignored " + n);

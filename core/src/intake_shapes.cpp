@@ -513,6 +513,57 @@ std::string describe_body_axes(const Rotation& world_R_body, const Eigen::Vector
   return out;
 }
 
+namespace {
+
+// The text with every byte that is not part of a well-formed UTF-8 sequence replaced by
+// '?': notes quote the pasted text, and JSON strings must be valid UTF-8.
+std::string utf8(const std::string& s) {
+  std::string out;
+  out.reserve(s.size());
+  std::size_t i = 0;
+  while (i < s.size()) {
+    const auto c = static_cast<unsigned char>(s[i]);
+    // Well-formed sequences (Unicode 15, table 3-7): no overlongs, surrogates or > U+10FFFF.
+    std::size_t n = 0;
+    unsigned char lo = 0x80, hi = 0xBF;  // range of the second byte
+    if (c < 0x80) {
+      n = 1;
+    } else if (c >= 0xC2 && c <= 0xDF) {
+      n = 2;
+    } else if (c >= 0xE0 && c <= 0xEF) {
+      n = 3;
+      if (c == 0xE0) lo = 0xA0;
+      if (c == 0xED) hi = 0x9F;
+    } else if (c >= 0xF0 && c <= 0xF4) {
+      n = 4;
+      if (c == 0xF0) lo = 0x90;
+      if (c == 0xF4) hi = 0x8F;
+    }
+    bool ok = n > 0 && i + n <= s.size();
+    if (ok && n > 1) {
+      const auto b = static_cast<unsigned char>(s[i + 1]);
+      ok = b >= lo && b <= hi;
+    }
+    for (std::size_t k = 2; ok && k < n; ++k) ok = (static_cast<unsigned char>(s[i + k]) & 0xC0) == 0x80;
+    if (ok) {
+      out.append(s, i, n);
+      i += n;
+    } else {
+      out += '?';
+      ++i;
+    }
+  }
+  return out;
+}
+
+std::vector<std::string> utf8(const std::vector<std::string>& v) {
+  std::vector<std::string> out;
+  for (const std::string& s : v) out.push_back(utf8(s));
+  return out;
+}
+
+}  // namespace
+
 nlohmann::json intake_json(const IntakeResult& result) {
   nlohmann::json readings = nlohmann::json::array();
   for (const Reading& r : result.readings) {
@@ -520,9 +571,9 @@ nlohmann::json intake_json(const IntakeResult& result) {
     nlohmann::json j = {{"kind", intake_kind_name(r.kind)},
                         {"layout", r.layout},
                         {"score", r.score},
-                        {"why", r.why},
+                        {"why", utf8(r.why)},
                         {"quaternion", {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}}},
-                        {"warnings", r.warnings},
+                        {"warnings", utf8(r.warnings)},
                         {"body_axes", r.body_axes}};
     j["as"] = r.as ? nlohmann::json(reading_kind_name(*r.as)) : nlohmann::json();
     if (r.translation) j["translation"] = {r.translation->x(), r.translation->y(), r.translation->z()};
@@ -539,16 +590,17 @@ nlohmann::json intake_json(const IntakeResult& result) {
   }
   nlohmann::json out = {{"readings", readings},
                         {"ambiguous", result.ambiguous},
-                        {"shape", result.shape},
-                        {"notes", result.notes}};
+                        {"shape", utf8(result.shape)},
+                        {"notes", utf8(result.notes)}};
   if (result.track) {
     nlohmann::json cols = nlohmann::json::array();
-    for (const TrackColumn& c : result.track->columns) cols.push_back({{"name", c.name}, {"role", c.role}});
+    for (const TrackColumn& c : result.track->columns)
+      cols.push_back({{"name", utf8(c.name)}, {"role", c.role}});
     out["track"] = {{"rows", result.track_rows},
                     {"reading", track_form_name(result.track->form)},
                     {"time_unit", result.track->time_column >= 0 ? result.track->time_unit : ""},
                     {"columns", cols},
-                    {"notes", result.track->notes}};
+                    {"notes", utf8(result.track->notes)}};
   } else {
     out["track"] = nullptr;
   }
