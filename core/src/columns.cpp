@@ -19,8 +19,9 @@ namespace attiscope {
 
 namespace {
 
-/// Rows whose quaternion norm is within this of 1 count as unit when finding columns.
-constexpr double kColumnUnitNorm = 1e-3;
+/// Rows whose quaternion norm is within this of 1 count as unit when finding columns (logs
+/// often print three or four digits).
+constexpr double kColumnUnitNorm = 1e-2;
 /// Rows whose 3x3 is this close to orthonormal count when finding matrix columns.
 constexpr double kColumnOrthonormal = 1e-3;
 /// Rows of the sample used for statistics.

@@ -550,7 +550,8 @@ Labelled labelled_readings(const std::vector<Field>& fields, const IntakePrefere
            {u.unit, u.unit == AngleUnit::Degrees ? AngleUnit::Radians : AngleUnit::Degrees}) {
         if (u.written && unit != u.unit) break;
         Reading e = euler_reading(conv, a, unit);
-        e.score = unit == u.unit ? kScoreDecided * (u.written ? 1.0 : 0.5 + 0.5 * u.confidence) : 0.3;
+        e.score = kScoreDecided *
+                  (u.written ? 1.0 : 0.5 + 0.5 * (unit == u.unit ? u.confidence : 1.0 - u.confidence));
         e.why = "the labels " + names_of(g) +
                 " name the angles (roll about x, pitch about y, yaw about z), read " + conv.name() + " in " +
                 (unit == AngleUnit::Degrees ? "degrees" : "radians") + "; " +

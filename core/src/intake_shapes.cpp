@@ -232,6 +232,11 @@ UnitGuess guess_angle_unit(const std::vector<NumberToken>& angles, AngleUnit hou
     g.unit = house;
     g.confidence = 0.5;
     g.why = "all angles are zero: the unit does not matter";
+  } else if (std::all_of(angles.begin(), angles.end(),
+                         [](const NumberToken& a) { return a.value == std::floor(a.value); })) {
+    g.unit = AngleUnit::Degrees;
+    g.confidence = 0.55;
+    g.why = "whole numbers within 2 pi: more usual for degrees, but radians are possible";
   } else {
     g.unit = AngleUnit::Radians;
     g.confidence = 0.6;
