@@ -4,11 +4,13 @@
 // 60 MB, one-million-line invented `t,qw,qx,qy,qz` log written to the temporary folder.
 #include <benchmark/benchmark.h>
 
+#include <charconv>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <iterator>
 #include <random>
 #include <string>
 
@@ -58,6 +60,28 @@ void BM_ReadTrackFile(benchmark::State& state) {
   state.counters["rows"] = static_cast<double>(rows);
 }
 BENCHMARK(BM_ReadTrackFile)->Unit(benchmark::kMillisecond)->MinTime(2.0);
+
+// The parsing limit for comparison: std::from_chars over every field of the same file,
+// already in memory, into a running sum (no columns, no checks, no arrays).
+void BM_FromCharsOnly(benchmark::State& state) {
+  std::ifstream in(track_file(), std::ios::binary);
+  const std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  const char* const begin = text.data() + text.find('\n') + 1;
+  const char* const end = text.data() + text.size();
+  for (auto _ : state) {
+    double sum = 0.0;
+    const char* p = begin;
+    while (p < end) {
+      double v = 0.0;
+      const auto r = std::from_chars(p, end, v);
+      sum += v;
+      p = r.ptr + 1;  // past ',' or '\n'
+    }
+    benchmark::DoNotOptimize(sum);
+  }
+  state.SetBytesProcessed(static_cast<std::int64_t>(text.size()) * state.iterations());
+}
+BENCHMARK(BM_FromCharsOnly)->Unit(benchmark::kMillisecond)->MinTime(2.0);
 
 }  // namespace
 

@@ -45,8 +45,10 @@ def attiscope_mb_s(bench, path):
                           "--benchmark_report_aggregates_only=true"],
                          env=env, check=True, capture_output=True, text=True).stdout
     runs = json.loads(out)["benchmarks"]
-    median = [r for r in runs if r.get("aggregate_name") == "median"][0]
-    return median["bytes_per_second"] / 1e6
+    def median(name):
+        return [r for r in runs if r.get("aggregate_name") == "median" and r["run_name"].startswith(name)][0]
+    return (median("BM_ReadTrackFile")["bytes_per_second"] / 1e6,
+            median("BM_FromCharsOnly")["bytes_per_second"] / 1e6)
 
 
 def main():
@@ -56,12 +58,14 @@ def main():
         path = os.path.join(tmp, "track.csv")
         write_log(path)
         mb = os.path.getsize(path) / 1e6
-        ours = attiscope_mb_s(sys.argv[1], path)
+        ours, limit = attiscope_mb_s(sys.argv[1], path)
         theirs = pandas_mb_s(path)
         print(f"file: {mb:.1f} MB, 1000000 lines t,qw,qx,qy,qz")
         print(f"attiscope read_track_file: {ours:8.1f} MB/s (median of 5, CPU time)")
         print(f"pandas {pd.__version__} read_csv:   {theirs:8.1f} MB/s (median of 5, CPU time)")
+        print(f"std::from_chars alone:     {limit:8.1f} MB/s (median of 5, CPU time, from memory)")
         print(f"ratio attiscope / pandas:  {ours / theirs:8.2f}")
+        print(f"ratio from_chars / attiscope: {limit / ours:5.2f}")
 
 
 if __name__ == "__main__":
