@@ -641,6 +641,11 @@ struct Window {
   double factor = 1.0;
 };
 
+/// A leading number at least this large looks like a Unix time stamp (seconds or finer).
+constexpr double kEpochLike = 1e5;
+/// A quaternion left after leaving numbers out must be this close to unit.
+constexpr double kWindowUnitNorm = 1e-2;
+
 bool is_shape(std::size_t n) {
   return n == 3 || n == 4 || n == 9 || n == 12 || n == 16;
 }
@@ -668,7 +673,7 @@ Error count_error(std::string_view text, const std::vector<NumberToken>& numbers
                           "axis-angle), 9 (a matrix), 12 or 16 (a transform)";
   if (numbers.size() > 16)
     return Error{msg + " (the 17th number is here)", numbers[16].line, numbers[16].column};
-  if (!numbers.empty()) {
+  if (numbers.size() >= 3) {
     const NumberToken& last = numbers.back();
     return Error{msg + " (the last number is here)", last.line, last.column};
   }
@@ -681,6 +686,7 @@ Error count_error(std::string_view text, const std::vector<NumberToken>& numbers
       ++column;
     }
   }
+  if (!numbers.empty()) return Error{msg + " (too few: the text ends here)", line, column};
   return Error{"no numbers found: nothing to read as a rotation", line, column};
 }
 
@@ -827,6 +833,15 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
       if (w.front + w.back > 0) layout.per_group = 0;
       std::optional<Error> err;
       for (Reading r : shape_readings(part, s.loose_hint, layout, prefs, &err)) {
+        if (w.front + w.back > 0) {
+          // With numbers left out, keep only readings the rest validates by itself (a unit
+          // quaternion, a matrix or transform) or that follow an epoch-like time stamp.
+          const bool epoch_like = w.front > 0 && std::abs(n.front().value) >= kEpochLike;
+          const bool self_checked = r.kind == IntakeKind::Matrix || r.kind == IntakeKind::Transform ||
+                                    (r.kind == IntakeKind::Quaternion && r.quaternion_norm &&
+                                     std::abs(*r.quaternion_norm - 1.0) < kWindowUnitNorm);
+          if (!self_checked && !epoch_like) continue;
+        }
         r.score *= w.factor;
         if (w.front > 0) {
           r.warnings.push_back("the first " + std::string(w.front == 1 ? "number" : "two numbers") +
