@@ -28,3 +28,9 @@ cmake -S . -B build-asan -DCMAKE_BUILD_TYPE=RelWithDebInfo -DATTISCOPE_SANITIZE=
   -DATTISCOPE_BUILD_GUI=OFF -DATTISCOPE_BUILD_BENCH=OFF >/dev/null
 cmake --build build-asan -j "$(nproc)"
 ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 ctest --test-dir build-asan --output-on-failure -j 2
+
+echo "== fuzz: the paste reader for about a minute (clang, libFuzzer, ASan + UBSan)"
+cmake -S . -B build-fuzz -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_COMPILER=clang++ -DATTISCOPE_FUZZ=ON \
+  -DATTISCOPE_BUILD_GUI=OFF -DATTISCOPE_BUILD_BENCH=OFF -DATTISCOPE_BUILD_TESTS=ON >/dev/null
+cmake --build build-fuzz --target intake_fuzz -j "$(nproc)"
+ctest --test-dir build-fuzz -R '^fuzz\.' --output-on-failure

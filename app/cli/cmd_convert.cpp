@@ -6,6 +6,7 @@
 #include "attiscope/core/quaternion.hpp"
 
 #include "attiscope/core/house_report.hpp"
+#include "attiscope/core/intake.hpp"
 #include "attiscope/core/report.hpp"
 #include "cli/cli.hpp"
 
@@ -32,17 +33,6 @@ const char* kConvertHelp =
     "three as the house's printed Euler angles (unless --euler or --deg/--rad is given),\n"
     "four as its quaternion layout, algebra and direction, nine as its matrix.\n"
     "\n";
-
-// Without --as: the reading the number count suggests, said in a warning. The paste reader
-// (`attiscope read`) ranks every reading of a text.
-std::optional<ReadingKind> reading_by_count(std::size_t n) {
-  switch (n) {
-    case 3: return ReadingKind::Euler;
-    case 4: return ReadingKind::QuatWxyz;
-    case 9: return ReadingKind::MatrixRows;
-    default: return std::nullopt;
-  }
-}
 
 }  // namespace
 
@@ -127,46 +117,46 @@ int run_convert(const std::vector<std::string>& args, Streams io) {
   if (house_read) {
     // Read above in the house convention.
   } else if (!kind) {
-    auto numbers = scan_numbers(text);
-    if (!numbers) {
-      io.err << "attiscope convert: " << numbers.error().describe() << "\n";
+    // Without --as: the top reading of the paste reader, with a warning when the text did
+    // not decide between readings.
+    IntakePreferences prefs;
+    prefs.euler = o.euler;
+    if (o.unit_given) prefs.unit = o.unit;
+    auto result = read_pasted(text, prefs);
+    if (!result) {
+      io.err << "attiscope convert: " << result.error().describe() << "\n";
       return kExitBadInput;
     }
-    const std::vector<NumberToken>& found = numbers.value();
-    kind = reading_by_count(found.size());
-    if (!kind) {
-      // Point at the first number beyond the largest usual shape below the count, or at the
-      // end of the text when there are too few for any shape.
-      std::size_t shape = 0;
-      for (std::size_t s : {3, 4, 9}) {
-        if (s < found.size()) shape = s;
-      }
-      Error e{"got " + std::to_string(found.size()) +
-              " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say "
-              "which with --as"};
-      if (shape > 0) {
-        e.line = found[shape].line;
-        e.column = found[shape].column;
-        e.message += " (number " + std::to_string(shape + 1) + " is here)";
-      } else {
-        e.line = 1;
-        e.column = 1;
-        for (std::size_t i = 0; i < text.size(); ++i) {
-          const auto ch = static_cast<unsigned char>(text[i]);
-          if (ch == '\n') {
-            ++e.line;
-            e.column = 1;
-          } else if ((ch & 0xC0) != 0x80) {
-            ++e.column;
-          }
-        }
-      }
-      io.err << "attiscope convert: " << e.describe() << "\n";
-      return kExitBadInput;
+    const IntakeResult& r = result.value();
+    const Reading& top = r.readings.front();
+    report.reading = intake_kind_name(top.kind) + (top.layout.empty() ? "" : " " + top.layout);
+    if (r.track) {
+      report.warnings.push_back("the text is a track of " + std::to_string(r.track_rows) +
+                                " rows: this is its first pose (see attiscope track)");
     }
-    report.warnings.push_back("no --as given: " + std::to_string(numbers.value().size()) +
-                              " numbers were read as " + reading_kind_name(*kind) +
-                              "; other readings are possible (see attiscope read)");
+    if (r.ambiguous) {
+      std::string others;
+      for (std::size_t i = 1; i < r.readings.size() && i < 4; ++i) {
+        others +=
+            (others.empty() ? "" : ", ") + intake_kind_name(r.readings[i].kind) + " " + r.readings[i].layout;
+      }
+      report.warnings.push_back("ambiguous: the text was read as " + report.reading + " (" + top.why +
+                                "), but it could also be " + others +
+                                "; say which with --as (see attiscope read)");
+    }
+    for (const std::string& w : top.warnings) report.warnings.push_back(w);
+    if (top.translation) {
+      report.warnings.push_back("the translation (" + std::to_string(top.translation->x()) + ", " +
+                                std::to_string(top.translation->y()) + ", " +
+                                std::to_string(top.translation->z()) +
+                                ") is not part of the rotation and is not shown below");
+    }
+    if (o.json) {
+      io.out << convert_json(top.rotation, report).dump(2) << "\n";
+    } else {
+      io.out << convert_table(top.rotation, report);
+    }
+    return kExitOk;
   }
   if (house_read) {
     if (o.json) {

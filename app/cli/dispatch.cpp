@@ -22,6 +22,7 @@ const Subcommand kSubcommands[] = {
     {"convention", "check a house convention file and show what it means", run_convention},
     {"compare", "relative rotation, angle, per-axis error; mean and spread", run_compare},
     {"mount", "mount check: nominal vs measured, or a solve from vector pairs", run_mount},
+    {"read", "print the ranked readings of pasted text", run_read},
 };
 
 void print_usage(std::ostream& os) {

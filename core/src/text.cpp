@@ -43,9 +43,18 @@ struct Cursor {
 constexpr std::string_view kUnicodeMinus = "\xE2\x88\x92";  // U+2212
 constexpr std::string_view kDegreeSign = "\xC2\xB0";        // U+00B0
 
+bool is_space(unsigned char c) {
+  return c == ' ' || c == '\t' || c == '\r';
+}
+
+// Characters that end a word.
 bool is_separator(unsigned char c) {
-  return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == ',' || c == ';' || c == '[' || c == ']' ||
-         c == '(' || c == ')' || c == '{' || c == '}';
+  return is_space(c) || c == '\n' || c == ',' || c == ';' || c == '[' || c == ']' || c == '(' || c == ')' ||
+         c == '{' || c == '}' || c == ':' || c == '=' || c == '"' || c == '\'';
+}
+
+bool is_digit(char c) {
+  return c >= '0' && c <= '9';
 }
 
 bool word_is(std::string_view word, std::string_view lower) {
@@ -64,16 +73,44 @@ std::optional<AngleUnit> unit_word(std::string_view w) {
   return std::nullopt;
 }
 
-// Reads one word (up to a separator) at the cursor.
-std::string_view word_at(const Cursor& c) {
-  std::size_t end = c.pos;
-  while (end < c.text.size() && !is_separator(static_cast<unsigned char>(c.text[end]))) ++end;
-  return c.text.substr(c.pos, end - c.pos);
+// from_chars leaves its value untouched when the number is out of range, so "1e5000" would
+// read as 0. strtod says which way: +/-HUGE_VAL (infinite, refused later as not finite) on
+// overflow, 0 or a subnormal on underflow.
+double out_of_range_value(const char* begin, const char* end) {
+  const std::string digits(begin, end);
+  return std::strtod(digits.c_str(), nullptr);
 }
 
-// Parses a number word: [sign] (digits | nan | inf | infinity), then an optional unit.
-// Returns the length of the number part, 0 when the word does not start with a number.
-std::size_t parse_number(std::string_view w, double* value) {
+// The longest number that from_chars reads at the start of s, with a decimal comma read as
+// a point when asked. Returns the characters used, 0 when there is no number.
+std::size_t read_decimal(std::string_view s, bool decimal_comma, double* value) {
+  if (!decimal_comma) {
+    const auto r = std::from_chars(s.data(), s.data() + s.size(), *value);
+    if (r.ec != std::errc() && r.ec != std::errc::result_out_of_range) return 0;
+    if (r.ec == std::errc::result_out_of_range) *value = out_of_range_value(s.data(), r.ptr);
+    return static_cast<std::size_t>(r.ptr - s.data());
+  }
+  char buf[128];
+  std::size_t n = 0;
+  for (; n < s.size() && n < sizeof buf; ++n) {
+    const char c = s[n];
+    if (c == ',' && n > 0 && is_digit(s[n - 1]) && n + 1 < s.size() && is_digit(s[n + 1])) {
+      buf[n] = '.';
+    } else if (is_digit(c) || c == '.' || c == 'e' || c == 'E' || c == '+' || c == '-') {
+      buf[n] = c;
+    } else {
+      break;
+    }
+  }
+  const auto r = std::from_chars(buf, buf + n, *value);
+  if (r.ec != std::errc() && r.ec != std::errc::result_out_of_range) return 0;
+  if (r.ec == std::errc::result_out_of_range) *value = out_of_range_value(buf, r.ptr);
+  return static_cast<std::size_t>(r.ptr - buf);
+}
+
+// Parses a number at the start of w: [sign] (digits | nan | inf | infinity). Returns the
+// length of the number part, 0 when w does not start with a number.
+std::size_t parse_number(std::string_view w, bool decimal_comma, double* value) {
   std::size_t i = 0;
   double sign = 1.0;
   if (w.substr(0, kUnicodeMinus.size()) == kUnicodeMinus) {
@@ -90,53 +127,257 @@ std::size_t parse_number(std::string_view w, double* value) {
       return i + special.size();
     }
   }
-  if (rest.empty() || !(std::isdigit(static_cast<unsigned char>(rest[0])) || rest[0] == '.')) return 0;
-  double v = 0.0;
-  const auto r = std::from_chars(rest.data(), rest.data() + rest.size(), v);
-  if (r.ec != std::errc() && r.ec != std::errc::result_out_of_range) return 0;
-  if (r.ec == std::errc::result_out_of_range) {
-    // from_chars leaves v untouched when the number is out of range, so "1e5000" would read
-    // as 0. strtod says which way: +/-HUGE_VAL (infinite, refused later as not finite) on
-    // overflow, 0 or a subnormal on underflow.
-    const std::string digits(rest.data(), r.ptr);
-    v = std::strtod(digits.c_str(), nullptr);
+  if (rest.empty() || !(is_digit(rest[0]) || (rest[0] == '.' && rest.size() > 1 && is_digit(rest[1])))) {
+    return 0;
   }
+  double v = 0.0;
+  const std::size_t n = read_decimal(rest, decimal_comma, &v);
+  if (n == 0) return 0;
   *value = sign * v;
-  return i + static_cast<std::size_t>(r.ptr - rest.data());
+  return i + n;
+}
+
+// Length of a date or clock time at the start of s ("12:00:01.25", "2026-12-01T08:00:00Z",
+// "2026-12-01"), 0 when there is none.
+std::size_t timestamp_length(std::string_view s) {
+  auto digits = [&](std::size_t p) {
+    std::size_t q = p;
+    while (q < s.size() && is_digit(s[q])) ++q;
+    return q - p;
+  };
+  const std::size_t d0 = digits(0);
+  if (d0 == 0) return 0;
+  std::size_t p = d0;
+  bool clock = false;
+  if (d0 == 4 && p < s.size() && s[p] == '-' && digits(p + 1) == 2 && p + 3 < s.size() && s[p + 3] == '-' &&
+      digits(p + 4) == 2) {
+    p += 6;  // a date
+    if (p < s.size() && (s[p] == 'T' || s[p] == '_') && digits(p + 1) > 0) {
+      ++p;
+      p += digits(p);
+    } else {
+      return p;
+    }
+  } else if (!(d0 <= 2 && p < s.size() && s[p] == ':' && digits(p + 1) == 2)) {
+    return 0;
+  }
+  while (p < s.size() && s[p] == ':' && digits(p + 1) > 0) {
+    clock = true;
+    p += 1 + digits(p + 1);
+  }
+  if (!clock) return 0;
+  if (p < s.size() && s[p] == '.' && digits(p + 1) > 0) p += 1 + digits(p + 1);
+  while (p < s.size() && (s[p] == 'Z' || s[p] == '+' || s[p] == '-' || s[p] == ':' || is_digit(s[p]))) ++p;
+  return p;
 }
 
 }  // namespace
 
-Expected<std::vector<NumberToken>> scan_numbers(std::string_view text) {
-  std::vector<NumberToken> out;
+bool looks_like_decimal_commas(std::string_view text) {
+  bool split_by_semicolon_or_tab = false;
+  for (char c : text) {
+    if (c == ';' || c == '\t') split_by_semicolon_or_tab = true;
+  }
+  if (!split_by_semicolon_or_tab) return false;
+  bool any = false;
+  int commas_in_field = 0;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    if (c == ',') {
+      if (i == 0 || i + 1 >= text.size() || !is_digit(text[i - 1]) || !is_digit(text[i + 1])) return false;
+      if (++commas_in_field > 1) return false;
+      any = true;
+    } else if (c == ';' || c == '\t' || c == ' ' || c == '\n' || c == '[' || c == ']') {
+      commas_in_field = 0;
+    }
+  }
+  return any;
+}
+
+std::vector<TextToken> scan_tokens(std::string_view text, const ScanOptions& options) {
+  std::vector<TextToken> out;
   Cursor c{text};
+  auto start_token = [&](TokenKind kind) {
+    TextToken t;
+    t.kind = kind;
+    t.number.line = c.line;
+    t.number.column = c.column;
+    t.number.offset = c.pos;
+    return t;
+  };
+  auto finish = [&](TextToken t, std::size_t length) {
+    t.number.length = length;
+    t.text = text.substr(t.number.offset, length);
+    c.advance(length);
+    out.push_back(t);
+  };
   while (!c.done()) {
-    if (is_separator(static_cast<unsigned char>(text[c.pos]))) {
+    const auto ch = static_cast<unsigned char>(text[c.pos]);
+    if (is_space(ch)) {
       c.advance(1);
       continue;
     }
-    const std::string_view w = word_at(c);
-    NumberToken t;
-    t.line = c.line;
-    t.column = c.column;
-    t.offset = c.pos;
-    const std::size_t n = parse_number(w, &t.value);
-    if (n == 0) {
-      if (!out.empty() && !out.back().unit && unit_word(w)) {  // "30 deg"
-        out.back().unit = unit_word(w);
+    switch (ch) {
+      case '\n': finish(start_token(TokenKind::Newline), 1); continue;
+      case ',': finish(start_token(TokenKind::Comma), 1); continue;
+      case ';': finish(start_token(TokenKind::Semicolon), 1); continue;
+      case ':':
+      case '=': finish(start_token(TokenKind::Assign), 1); continue;
+      case '[':
+      case '{':
+      case '(': {
+        TextToken t = start_token(TokenKind::Open);
+        t.bracket = static_cast<char>(ch);
+        finish(t, 1);
+        continue;
+      }
+      case ']':
+      case '}':
+      case ')': {
+        TextToken t = start_token(TokenKind::Close);
+        t.bracket = static_cast<char>(ch);
+        finish(t, 1);
+        continue;
+      }
+      case '"':
+      case '\'': {
+        TextToken t = start_token(TokenKind::Word);
+        const std::size_t close = text.find(static_cast<char>(ch), c.pos + 1);
+        const std::size_t nl = text.find('\n', c.pos + 1);
+        const std::size_t end =
+            (close == std::string_view::npos || (nl != std::string_view::npos && nl < close))
+                ? std::min(nl, text.size())
+                : close + 1;
+        t.quoted = true;
+        t.number.length = end - c.pos;
+        const std::size_t inner_end = close == end - 1 ? end - 1 : end;
+        t.text = text.substr(c.pos + 1, inner_end - c.pos - 1);
+        c.advance(end - c.pos);
+        out.push_back(t);
+        continue;
+      }
+      default: break;
+    }
+    // A word: up to a separator. The Unicode minus and a lone sign before a number belong
+    // to that number.
+    std::size_t end = c.pos;
+    while (end < text.size() && !is_separator(static_cast<unsigned char>(text[end]))) {
+      if (options.decimal_comma && end + 1 < text.size() && text[end + 1] == ',' && is_digit(text[end]) &&
+          end + 2 < text.size() && is_digit(text[end + 2])) {
+        end += 2;
+        continue;
+      }
+      ++end;
+    }
+    std::string_view w = text.substr(c.pos, end - c.pos);
+    if (options.decimal_comma) {
+      // In decimal-comma mode a comma between digits stays inside the word.
+      while (end + 1 < text.size() && text[end] == ',' && end > c.pos && is_digit(text[end - 1]) &&
+             is_digit(text[end + 1])) {
+        ++end;
+        while (end < text.size() && !is_separator(static_cast<unsigned char>(text[end]))) ++end;
+      }
+      w = text.substr(c.pos, end - c.pos);
+    }
+    const bool lone_sign = w == "-" || w == "+" || w == kUnicodeMinus;
+    if (lone_sign) {
+      // "- 0.38k": look past the spaces for a number.
+      std::size_t p = end;
+      while (p < text.size() && is_space(static_cast<unsigned char>(text[p]))) ++p;
+      double v = 0.0;
+      const std::size_t n = p < text.size() ? parse_number(text.substr(p), options.decimal_comma, &v) : 0;
+      if (n > 0) {
+        std::size_t q = p;
+        while (q < text.size() && !is_separator(static_cast<unsigned char>(text[q]))) ++q;
+        // Re-read the number with its sign glued on.
+        TextToken t = start_token(TokenKind::Number);
+        t.number.value = w == "+" ? v : -v;
+        const std::string_view rest = text.substr(p + n, q - p - n);
+        if (!rest.empty()) {
+          if (auto u = unit_word(rest)) {
+            t.number.unit = u;
+          } else if (rest.size() == 1 && (rest[0] == 'i' || rest[0] == 'j' || rest[0] == 'k')) {
+            t.imaginary = rest[0];
+          } else {
+            q = p + n;  // the rest becomes its own word
+          }
+        }
+        finish(t, q - c.pos);
+        continue;
+      }
+      if (w == "+") {  // "a + b": a plus between terms
+        c.advance(1);
+        continue;
+      }
+    }
+    if (!w.empty() && is_digit(w[0])) {
+      // A clock time runs through ':' separators: take it whole.
+      const std::size_t ts = timestamp_length(text.substr(c.pos));
+      if (ts > 0 &&
+          (c.pos + ts == text.size() || is_separator(static_cast<unsigned char>(text[c.pos + ts])))) {
+        TextToken t = start_token(TokenKind::Word);
+        t.timestamp = true;
+        finish(t, ts);
+        continue;
+      }
+    }
+    double v = 0.0;
+    const std::size_t n = parse_number(w, options.decimal_comma, &v);
+    if (n > 0) {
+      TextToken t = start_token(TokenKind::Number);
+      t.number.value = v;
+      const std::string_view rest = w.substr(n);
+      bool number = true;
+      if (!rest.empty()) {
+        if (auto u = unit_word(rest)) {
+          t.number.unit = u;
+        } else if (rest.size() == 1 && (rest[0] == 'i' || rest[0] == 'j' || rest[0] == 'k')) {
+          t.imaginary = rest[0];
+        } else {
+          number = false;  // "1st", "0x1F", "3.png": a word
+        }
+      }
+      if (number) {
+        finish(t, w.size());
+        continue;
+      }
+    }
+    if (!out.empty() && out.back().kind == TokenKind::Number && !out.back().number.unit &&
+        !out.back().imaginary && out.back().number.line == c.line) {
+      if (auto u = unit_word(w)) {  // "30 deg"
+        out.back().number.unit = u;
         c.advance(w.size());
         continue;
       }
-      return Error{"'" + std::string(w) + "' is not a number", t.line, t.column};
     }
-    if (n < w.size()) {  // "30deg", "45°"
-      const auto u = unit_word(w.substr(n));
-      if (!u) return Error{"'" + std::string(w) + "' is not a number", t.line, t.column};
-      t.unit = u;
+    // "q[0]" stays one word.
+    std::size_t len = w.size();
+    if (c.pos + len < text.size() && text[c.pos + len] == '[') {
+      std::size_t p = c.pos + len + 1;
+      while (p < text.size() && is_digit(text[p])) ++p;
+      if (p > c.pos + len + 1 && p < text.size() && text[p] == ']') len = p + 1 - c.pos;
     }
-    t.length = n;
-    out.push_back(t);
-    c.advance(w.size());
+    finish(start_token(TokenKind::Word), len);
+  }
+  return out;
+}
+
+Expected<std::vector<NumberToken>> scan_numbers(std::string_view text, const ScanOptions& options) {
+  std::vector<NumberToken> out;
+  for (const TextToken& t : scan_tokens(text, options)) {
+    switch (t.kind) {
+      case TokenKind::Number:
+        if (t.imaginary) {
+          return Error{"'" + std::string(t.text) + "' is a quaternion term, not a plain number",
+                       t.number.line, t.number.column};
+        }
+        out.push_back(t.number);
+        break;
+      case TokenKind::Word:
+      case TokenKind::Assign:
+        return Error{"'" + std::string(t.text) + "' is not a number", t.number.line, t.number.column};
+      default: break;
+    }
   }
   return out;
 }

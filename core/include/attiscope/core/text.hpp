@@ -30,11 +30,50 @@ struct NumberToken {
   std::size_t length = 0;
 };
 
+/// What a piece of a text is, for the paste reader (intake.hpp).
+enum class TokenKind {
+  Number,     ///< a number (NumberToken), maybe with a unit or an i/j/k suffix
+  Word,       ///< a name, a quoted string, a time stamp, a file name: anything else
+  Assign,     ///< ':' or '='
+  Open,       ///< '[', '{' or '('
+  Close,      ///< ']', '}' or ')'
+  Comma,      ///< ','
+  Semicolon,  ///< ';'
+  Newline,    ///< end of a line
+};
+
+/// One piece of a text. `number` holds the place (line, column, offset, length) of every
+/// token, and the value of a Number.
+struct TextToken {
+  TokenKind kind = TokenKind::Word;
+  NumberToken number;
+  std::string_view text;   ///< the token as written (a quoted word without its quotes)
+  char imaginary = 0;      ///< 'i', 'j' or 'k' for "0.38k"; 0 otherwise
+  bool quoted = false;     ///< a word written in quotes
+  bool timestamp = false;  ///< a word that is a date or a clock time ("12:00:01.5", "2026-12-01T...")
+  char bracket = 0;        ///< the bracket character of Open and Close
+};
+
+struct ScanOptions {
+  /// Read "0,5" as 0.5 (a comma between two digits is a decimal comma). For texts whose
+  /// fields are split by semicolons or tabs (spreadsheets in many locales).
+  bool decimal_comma = false;
+};
+
+/// Splits a text into tokens. Never fails: what is not a number is a Word. A unit word after
+/// a number ("30 deg") is attached to the number; a lone sign before a number ("- 0.3k") is
+/// its sign; a lone '+' between terms is dropped.
+std::vector<TextToken> scan_tokens(std::string_view text, const ScanOptions& options = {});
+
+/// True when the text's fields are split by semicolons or tabs and its commas all sit
+/// between two digits with at most one comma per field: then the commas are decimal commas.
+bool looks_like_decimal_commas(std::string_view text);
+
 /// Finds the numbers in a text. Separators: spaces, tabs, commas, semicolons, brackets,
 /// braces, parentheses, newlines. Accepted: sign (including the Unicode minus U+2212 and
 /// a leading +), exponents, nan, inf, a unit after the number (deg, degrees, rad, radians,
 /// the degree sign). Any other word is an error that names its line and column.
-Expected<std::vector<NumberToken>> scan_numbers(std::string_view text);
+Expected<std::vector<NumberToken>> scan_numbers(std::string_view text, const ScanOptions& options = {});
 
 /// The explicit readings of the command line's --as option.
 enum class ReadingKind {

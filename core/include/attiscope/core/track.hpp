@@ -29,6 +29,7 @@ struct Track {
   std::vector<double> time_s;          ///< seconds; sample index when the log has no time column
   std::vector<double> qw, qx, qy, qz;  ///< as read (normalised only when asked), sign kept
   std::vector<BadRow> bad_rows;
+  std::size_t skipped_lines = 0;  ///< blank lines and '#' comment lines (header lines not counted)
   std::vector<TrackColumn> columns;
   std::string reading;    ///< how the rotation columns were read, e.g. "quat-wxyz"
   bool has_time = false;  ///< false: time_s holds sample indices
