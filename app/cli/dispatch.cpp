@@ -30,7 +30,7 @@ void print_usage(std::ostream& os) {
         "With no subcommand, attiscope opens the window on the demo scene.\n\nSubcommands:\n";
   for (const Subcommand& s : kSubcommands) {
     std::string n = s.name;
-    n.resize(10, ' ');
+    n.resize(12, ' ');
     os << "  " << n << s.summary << "\n";
   }
   os << "\nEvery subcommand takes --help. Exit codes: 0 success, 1 a check failed, 2 bad input.\n";
