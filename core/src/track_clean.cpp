@@ -25,19 +25,32 @@ CleanTrack clean_track(const Track& track) {
   const std::size_t n = t.size();
   bool negating = false;
   std::size_t run_change = 0;  // index in changes of the current SignFlipped run
-  std::size_t last_valid = n;  // index of the previous sample that is a rotation
+  bool normalising = false;
+  std::size_t norm_change = 0;  // index in changes of the current Normalised run
+  std::size_t last_valid = n;   // index of the previous sample that is a rotation
   for (std::size_t i = 0; i < n; ++i) {
     double w = t.qw[i], x = t.qx[i], y = t.qy[i], z = t.qz[i];
     const double norm = std::sqrt(w * w + x * x + y * y + z * z);
-    if (!std::isfinite(norm) || !(norm >= kMinQuaternionNorm)) continue;  // not a rotation: as is
+    if (!std::isfinite(norm) || !(norm >= kMinQuaternionNorm)) {  // not a rotation: copied as is
+      normalising = negating = false;
+      continue;
+    }
+    // Norms off by more than kUnitNormTolerance are listed, as runs; every sample is scaled.
+    const bool listed = std::abs(norm - 1.0) > kUnitNormTolerance;
+    if (listed && normalising) {
+      CleanChange& run = out.changes[norm_change];
+      run.count = i - run.sample + 1;
+      if (std::abs(norm - 1.0) > std::abs(run.value - 1.0)) run.value = norm;
+    } else if (listed) {
+      CleanChange c;
+      c.sample = i;
+      c.kind = CleanChangeKind::Normalised;
+      c.value = norm;
+      norm_change = out.changes.size();
+      out.changes.push_back(c);
+    }
+    normalising = listed;
     if (norm != 1.0) {
-      if (std::abs(norm - 1.0) > kUnitNormTolerance) {
-        CleanChange c;
-        c.sample = i;
-        c.kind = CleanChangeKind::Normalised;
-        c.value = norm;
-        out.changes.push_back(c);
-      }
       w /= norm;
       x /= norm;
       y /= norm;

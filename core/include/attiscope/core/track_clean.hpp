@@ -26,7 +26,8 @@ namespace attiscope {
 
 enum class CleanChangeKind {
   SignFlipped,    ///< samples [sample, sample + count) were negated to keep the sign continuous
-  Normalised,     ///< sample's quaternion had norm `value` and was scaled to 1
+  Normalised,     ///< samples [sample, sample + count) were scaled to norm 1; `value`: the
+                  ///< norm farthest from 1 among them
   EulerUnwrapped  ///< from `sample` on, `value` whole turns (signed) were added to `channel`
 };
 
