@@ -35,7 +35,7 @@ double quaternion_step_angle(double aw, double ax, double ay, double az, double 
 }
 
 void track_euler(const Track& track, std::size_t begin, std::size_t end, const EulerConvention& c, double* a,
-                 double* b, double* cc) {
+                 double* b, double* cc, double* margin) {
   // TODO(batch): replace this loop by core/batch.hpp's kernel once it is on main.
   const double nan = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t i = begin; i < end; ++i) {
@@ -44,12 +44,14 @@ void track_euler(const Track& track, std::size_t begin, std::size_t end, const E
     const std::size_t o = i - begin;
     if (!(n >= kMinQuaternionNorm) || !std::isfinite(n)) {
       a[o] = b[o] = cc[o] = nan;
+      if (margin) margin[o] = nan;
       continue;
     }
     const EulerAngles e = to_euler(Rotation(q), c);
     a[o] = e.angles_rad(0);
     b[o] = e.angles_rad(1);
     cc[o] = e.angles_rad(2);
+    if (margin) margin[o] = e.lock_margin_rad;
   }
 }
 
@@ -78,8 +80,9 @@ class Scanner {
   Scanner(const Track& track, const TrackDiagnosisOptions& o, TrackDiagnosis* out)
       : t_(track), o_(o), out_(out) {}
 
-  // Sample i with its norm, Euler angles and step angle from sample i-1 (0 for i == 0).
-  void visit(std::size_t i, double norm, const double e[3], double step) {
+  // Sample i with its norm, Euler angles, lock margin and step angle from sample i-1 (0 for
+  // i == 0).
+  void visit(std::size_t i, double norm, const double e[3], double margin, double step) {
     TrackSummary& s = out_->summary;
     // non_unit: runs of samples off the unit sphere.
     const bool off_unit = !(std::abs(norm - 1.0) <= o_.unit_tolerance);
@@ -92,7 +95,6 @@ class Scanner {
     }
     in_non_unit_ = off_unit;
 
-    const double margin = lock_margin(o_.euler, e[1]);
     const bool near = margin < o_.near_lock_margin_rad;
     if (margin < s.min_lock_margin_rad) s.min_lock_margin_rad = margin;
     if (near) {
@@ -204,11 +206,12 @@ TrackDiagnosis diagnose_track(const Track& track, const TrackDiagnosisOptions& o
   s.rate_hz = median_rate(track);
 
   Scanner scanner(track, options, &out);
-  std::vector<double> ea(kBlock), eb(kBlock), ec(kBlock), norm(kBlock), step(kBlock);
+  std::vector<double> ea(kBlock), eb(kBlock), ec(kBlock), em(kBlock), norm(kBlock), step(kBlock);
   for (std::size_t block = 0; block < n; block += kBlock) {
     const std::size_t len = std::min(kBlock, n - block);
     detail::parallel_ranges(len, options.threads, 64, [&](std::size_t b, std::size_t e) {
-      track_euler(track, block + b, block + e, options.euler, ea.data() + b, eb.data() + b, ec.data() + b);
+      track_euler(track, block + b, block + e, options.euler, ea.data() + b, eb.data() + b, ec.data() + b,
+                  em.data() + b);
       for (std::size_t k = b; k < e; ++k) {
         const std::size_t i = block + k;
         norm[k] = norm_at(track, i);
@@ -217,7 +220,7 @@ TrackDiagnosis diagnose_track(const Track& track, const TrackDiagnosisOptions& o
     });
     for (std::size_t k = 0; k < len; ++k) {
       const double e[3] = {ea[k], eb[k], ec[k]};
-      scanner.visit(block + k, norm[k], e, step[k]);
+      scanner.visit(block + k, norm[k], e, em[k], step[k]);
     }
   }
   std::stable_sort(out.events.begin(), out.events.end(), [](const TrackEvent& a, const TrackEvent& b) {

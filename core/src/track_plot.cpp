@@ -16,7 +16,7 @@ namespace {
 constexpr double kDeg = 180.0 / M_PI;
 constexpr double kTurn = 2.0 * M_PI;
 constexpr float kInf = std::numeric_limits<float>::infinity();
-// Samples converted per call of track_euler (three double buffers on the stack: 48 KB).
+// Samples converted per call of track_euler (four double buffers on the stack: 64 KB).
 constexpr std::size_t kChunk = 2048;
 // Part boundaries are multiples of this, so each part owns whole pyramid blocks.
 constexpr std::size_t kPartAlign = kPyramidBase * 16;
@@ -105,15 +105,15 @@ struct PartUnwrap {
 
 void convert_part(const Track& t, const EulerConvention& c, AngleMode mode, std::size_t begin,
                   std::size_t end, TrackPlotData* d, PartUnwrap* st) {
-  double buf[3][kChunk];
+  double buf[4][kChunk];
   for (std::size_t i0 = begin; i0 < end; i0 += kChunk) {
     const std::size_t len = std::min(kChunk, end - i0);
-    track_euler(t, i0, i0 + len, c, buf[0], buf[1], buf[2]);
+    track_euler(t, i0, i0 + len, c, buf[0], buf[1], buf[2], buf[3]);
     float* mid = d->euler_deg[1].data() + i0;
     float* margin = d->lock_margin_deg.data() + i0;
     for (std::size_t k = 0; k < len; ++k) {
       mid[k] = static_cast<float>(buf[1][k] * kDeg);
-      margin[k] = static_cast<float>(lock_margin(c, buf[1][k]) * kDeg);
+      margin[k] = static_cast<float>(buf[3][k] * kDeg);
     }
     for (int s = 0; s < 2; ++s) {
       const double* v = buf[s == 0 ? 0 : 2];

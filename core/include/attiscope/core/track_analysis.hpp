@@ -100,10 +100,11 @@ double quaternion_step_angle(double aw, double ax, double ay, double az, double 
 /// the step is one sample (rad per sample).
 std::vector<double> angular_rate(const Track& track);
 
-/// Euler angles of samples [begin, end) of a track (normalised first), written to a, b, c
-/// (radians, application order, the ranges of euler.hpp). The one place a track is
+/// Euler angles of samples [begin, end) of a track (any norm), written to a, b, c (radians,
+/// application order, the ranges and lock rule of euler.hpp), and the lock margin (rad) when
+/// `margin` is given; NaN for a sample that is not a rotation. The one place a track is
 /// converted to Euler angles: the diagnosis, the plots and the export all call it.
 void track_euler(const Track& track, std::size_t begin, std::size_t end, const EulerConvention& c, double* a,
-                 double* b, double* cc);
+                 double* b, double* cc, double* margin = nullptr);
 
 }  // namespace attiscope
