@@ -8,6 +8,7 @@
 #include <chrono>
 #include <cstdio>
 #include <cstdlib>
+#include <ctime>
 #include <fstream>
 #include <functional>
 #include <random>
@@ -25,15 +26,37 @@ namespace {
 using Clock = std::chrono::steady_clock;
 constexpr std::uint32_t kBenchSeed = 20261201;
 
-double median_ms(int reps, const std::function<void()>& fn) {
-  std::vector<double> ms;
+// CPU time of the whole process (all threads), ms.
+double process_cpu_ms() {
+  timespec ts{};
+  clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &ts);
+  return static_cast<double>(ts.tv_sec) * 1e3 + static_cast<double>(ts.tv_nsec) * 1e-6;
+}
+
+// Medians of wall time and of process CPU time: on a shared machine wall time includes
+// waiting for a core, CPU time does not.
+struct Timing {
+  double wall = 0.0, cpu = 0.0;
+};
+
+Timing timing(int reps, const std::function<void()>& fn) {
+  std::vector<std::pair<double, double>> ms;
   for (int r = 0; r < reps; ++r) {
+    const double c0 = process_cpu_ms();
     const auto t0 = Clock::now();
     fn();
-    ms.push_back(std::chrono::duration<double, std::milli>(Clock::now() - t0).count());
+    ms.emplace_back(std::chrono::duration<double, std::milli>(Clock::now() - t0).count(),
+                    process_cpu_ms() - c0);
   }
   std::sort(ms.begin(), ms.end());
-  return ms[ms.size() / 2];
+  std::vector<double> cpu;
+  for (const auto& m : ms) cpu.push_back(m.second);
+  std::sort(cpu.begin(), cpu.end());
+  return {ms[ms.size() / 2].first, cpu[cpu.size() / 2]};
+}
+
+double median_ms(int reps, const std::function<void()>& fn) {
+  return timing(reps, fn).wall;
 }
 
 const char* mode_name(attiscope::AngleMode m) {
@@ -71,7 +94,7 @@ int main(int argc, char** argv) {
   for (unsigned threads : {1u, 2u}) {
     for (AngleMode mode : {AngleMode::Wrapped, AngleMode::ZeroTo360, AngleMode::Unwrapped}) {
       std::size_t k = 0;
-      const double ms = median_ms(24, [&] {
+      const Timing ms = timing(24, [&] {
         set_plot_convention(t, all[k++ % 24], mode, threads, &d);
         for (int ch = 4; ch < kPlotChannelCount; ++ch) {
           const PlotEnvelope e = plot_envelope(t, d, static_cast<PlotChannel>(ch), -1.0, 1e9, columns);
@@ -79,21 +102,25 @@ int main(int argc, char** argv) {
         }
       });
       std::printf(
-          "  convention switch + envelopes, %s, %u thread(s): %.2f ms median over the 24 conventions\n",
-          mode_name(mode), threads, ms);
+          "  convention switch + envelopes, %s, %u thread(s): %.2f ms wall, %.2f ms CPU (medians, 24 "
+          "conventions)\n",
+          mode_name(mode), threads, ms.wall, ms.cpu);
     }
   }
-  std::printf("  track_euler alone (1 thread, intrinsic ZYX): %.2f ms\n", median_ms(5, [&] {
-                std::vector<double> a(n), b(n), c(n);
-                track_euler(t, 0, n, all[5], a.data(), b.data(), c.data());
-              }));
+  {
+    std::vector<double> a(n), b(n), c(n), m(n);
+    const Timing ms =
+        timing(9, [&] { track_euler(t, 0, n, all[5], a.data(), b.data(), c.data(), m.data()); });
+    std::printf("  track_euler alone (1 thread, intrinsic ZYX, with margin): %.2f ms wall, %.2f ms CPU\n",
+                ms.wall, ms.cpu);
+  }
 
   TrackDiagnosisOptions o;
   o.rate_limit_rad_s = 3.0;
   for (unsigned threads : {1u, 2u}) {
     o.threads = threads;
-    std::printf("  diagnose_track, %u thread(s): %.2f ms\n", threads,
-                median_ms(5, [&] { diagnose_track(t, o); }));
+    const Timing ms = timing(5, [&] { diagnose_track(t, o); });
+    std::printf("  diagnose_track, %u thread(s): %.2f ms wall, %.2f ms CPU\n", threads, ms.wall, ms.cpu);
   }
   CleanTrack clean;
   std::printf("  clean_track: %.2f ms\n", median_ms(5, [&] { clean = clean_track(t); }));
