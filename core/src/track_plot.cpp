@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <limits>
 #include <thread>
 
@@ -23,15 +24,31 @@ constexpr std::size_t kPartAlign = kPyramidBase * 16;
 
 template <class T>
 void scan_min_max(const T* v, std::size_t a, std::size_t b, float* mn, float* mx) {
-  float lo = *mn, hi = *mx;
-  for (std::size_t i = a; i < b; ++i) {
-    const float x = static_cast<float>(v[i]);
-    // NaN fails both comparisons and is skipped.
-    if (x < lo) lo = x;
-    if (x > hi) hi = x;
+  // Eight independent lanes, each `x < lo ? x : lo`, so the compiler can use packed min/max
+  // without reordering anything; NaN fails both comparisons and is skipped.
+  constexpr std::size_t kLanes = 8;
+  float lo[kLanes], hi[kLanes];
+  for (std::size_t k = 0; k < kLanes; ++k) {
+    lo[k] = *mn;
+    hi[k] = *mx;
   }
-  *mn = lo;
-  *mx = hi;
+  std::size_t i = a;
+  for (; i + kLanes <= b; i += kLanes) {
+    for (std::size_t k = 0; k < kLanes; ++k) {
+      const float x = static_cast<float>(v[i + k]);
+      lo[k] = x < lo[k] ? x : lo[k];
+      hi[k] = x > hi[k] ? x : hi[k];
+    }
+  }
+  for (; i < b; ++i) {
+    const float x = static_cast<float>(v[i]);
+    lo[0] = x < lo[0] ? x : lo[0];
+    hi[0] = x > hi[0] ? x : hi[0];
+  }
+  for (std::size_t k = 0; k < kLanes; ++k) {
+    *mn = lo[k] < *mn ? lo[k] : *mn;
+    *mx = hi[k] > *mx ? hi[k] : *mx;
+  }
 }
 
 // Level 0 of a pyramid for the full blocks in [block_begin, block_end).
@@ -99,9 +116,68 @@ void pyramid_range(const T* v, const MinMaxPyramid& p, std::size_t a, std::size_
 // What one part of the track found while unwrapping, to join the parts afterwards.
 struct PartUnwrap {
   bool have[2] = {false, false};
-  double first_raw[2] = {0.0, 0.0}, last_raw[2] = {0.0, 0.0}, offset[2] = {0.0, 0.0};
+  double first_raw[2] = {0.0, 0.0}, last_raw[2] = {0.0, 0.0};
+  std::int64_t turns[2] = {0, 0};  // whole turns added at the end of the part
   double add_deg[2] = {0.0, 0.0};  // set by the join: whole turns this part must add
 };
+
+// The unwrap of one chunk of a channel (the rule of unwrap_euler in track_clean.hpp),
+// carried across chunks in `st`. Angles come wrapped into (-pi, pi], so a step beyond pi is
+// exactly one turn: the turn counts are blends, their running sum an integer add.
+void unwrap_chunk(const double* v, std::size_t len, int s, float* out, PartUnwrap* st) {
+  // v * 0 is NaN for NaN and infinity; four lanes so the check vectorises.
+  double lanes[4] = {0.0, 0.0, 0.0, 0.0};
+  std::size_t k4 = 0;
+  for (; k4 + 4 <= len; k4 += 4) {
+    for (std::size_t l = 0; l < 4; ++l) lanes[l] += v[k4 + l] * 0.0;
+  }
+  for (; k4 < len; ++k4) lanes[0] += v[k4] * 0.0;
+  const bool finite = lanes[0] + lanes[1] + lanes[2] + lanes[3] == 0.0;
+  if (!finite || len == 0) {
+    // A sample that is not a rotation: step over it as unwrap_euler does.
+    for (std::size_t k = 0; k < len; ++k) {
+      const double x = v[k];
+      if (std::isfinite(x)) {
+        if (st->have[s]) {
+          const double step = x - st->last_raw[s];
+          if (std::abs(step) > M_PI) st->turns[s] -= static_cast<std::int64_t>(std::round(step / kTurn));
+        } else {
+          st->have[s] = true;
+          st->first_raw[s] = x;
+        }
+        st->last_raw[s] = x;
+      }
+      out[k] = static_cast<float>((x + static_cast<double>(st->turns[s]) * kTurn) * kDeg);
+    }
+    return;
+  }
+  if (!st->have[s]) {
+    st->have[s] = true;
+    st->first_raw[s] = v[0];
+    st->last_raw[s] = v[0];
+  }
+  std::int32_t jump[kChunk];
+  const double first_step = v[0] - st->last_raw[s];
+  jump[0] = first_step > M_PI ? -1 : (first_step < -M_PI ? 1 : 0);
+  const double* next = v + 1;
+  std::int32_t* jump_next = jump + 1;
+  for (std::size_t k = 0; k + 1 < len; ++k) {
+    const double step = next[k] - v[k];
+    jump_next[k] = static_cast<std::int32_t>(step < -M_PI) - static_cast<std::int32_t>(step > M_PI);
+  }
+  // Running sum of the turns within the chunk (int32: one cycle an add), then the angles.
+  std::int32_t acc = 0;
+  for (std::size_t k = 0; k < len; ++k) {
+    acc += jump[k];
+    jump[k] = acc;
+  }
+  const double base = static_cast<double>(st->turns[s]) * kTurn;
+  for (std::size_t k = 0; k < len; ++k) {
+    out[k] = static_cast<float>((v[k] + (base + static_cast<double>(jump[k]) * kTurn)) * kDeg);
+  }
+  st->turns[s] += acc;
+  st->last_raw[s] = v[len - 1];
+}
 
 void convert_part(const Track& t, const EulerConvention& c, AngleMode mode, std::size_t begin,
                   std::size_t end, TrackPlotData* d, PartUnwrap* st) {
@@ -126,24 +202,18 @@ void convert_part(const Track& t, const EulerConvention& c, AngleMode mode, std:
           for (std::size_t k = 0; k < len; ++k)
             out[k] = static_cast<float>((v[k] < 0.0 ? v[k] + kTurn : v[k]) * kDeg);
           break;
-        case AngleMode::Unwrapped:
-          // The same rule as unwrap_euler (track_clean.hpp), carried across chunks.
-          for (std::size_t k = 0; k < len; ++k) {
-            const double x = v[k];
-            if (std::isfinite(x)) {
-              if (st->have[s]) {
-                const double step = x - st->last_raw[s];
-                if (std::abs(step) > M_PI) st->offset[s] -= std::round(step / kTurn) * kTurn;
-              } else {
-                st->have[s] = true;
-                st->first_raw[s] = x;
-              }
-              st->last_raw[s] = x;
-            }
-            out[k] = static_cast<float>((x + st->offset[s]) * kDeg);
-          }
-          break;
+        case AngleMode::Unwrapped: unwrap_chunk(v, len, s, out, st); break;
       }
+    }
+    // Level 0 of the four pyramids for the whole blocks of this chunk, while it is in cache
+    // (chunks start on block boundaries: parts are cut at multiples of kPartAlign).
+    const std::size_t kb = i0 / kPyramidBase;
+    for (int ch = 4; ch < 8; ++ch) {
+      MinMaxPyramid* p = &d->pyramid[ch];
+      if (p->min.empty()) continue;
+      const std::size_t ke = std::min(p->min[0].size(), (i0 + len) / kPyramidBase);
+      const float* v = ch == 7 ? d->lock_margin_deg.data() : d->euler_deg[ch - 4].data();
+      build_level0(v, kb, ke, p);
     }
   }
 }
@@ -229,33 +299,35 @@ void set_plot_convention(const Track& track, const EulerConvention& c, AngleMode
           add = offset + (std::abs(step) > M_PI ? -std::round(step / kTurn) * kTurn : 0.0);
         }
         pu.add_deg[s] = add * kDeg;
-        offset = add + pu.offset[s];
+        offset = add + static_cast<double>(pu.turns[s]) * kTurn;
         last_raw = pu.last_raw[s];
         have = true;
       }
     }
   }
 
-  // Phase 2 (parallel): apply the join, then level 0 of the pyramids of each part.
-  run_parts([&](std::size_t p) {
-    const auto [b, e] = ranges[p];
-    for (int s = 0; s < 2; ++s) {
-      const float add = static_cast<float>(parts[p].add_deg[s]);
-      if (add == 0.0f) continue;
-      float* v = d->euler_deg[s == 0 ? 0 : 2].data();
-      for (std::size_t i = b; i < e; ++i) v[i] += add;
-    }
-    const std::size_t kb = b / kPyramidBase;
-    for (int ch : kConvChannels) {
-      MinMaxPyramid* pyr = &d->pyramid[ch];
-      const std::size_t ke = std::min(pyr->min.empty() ? 0 : pyr->min[0].size(), e / kPyramidBase);
-      if (pyr->min.empty()) continue;
-      with_channel(track, *d, static_cast<PlotChannel>(ch), [&](const auto* v) {
-        build_level0(v, kb, ke, pyr);
-        return 0;
-      });
-    }
-  });
+  // Phase 2 (parallel, unwrapped mode only): shift each later part by the whole turns the
+  // join found, values and level-0 entries alike (float rounding is monotonic, so the
+  // shifted min and max are the min and max of the shifted values).
+  if (mode == AngleMode::Unwrapped && nparts > 1) {
+    run_parts([&](std::size_t p) {
+      const auto [b, e] = ranges[p];
+      for (int s = 0; s < 2; ++s) {
+        const float add = static_cast<float>(parts[p].add_deg[s]);
+        if (add == 0.0f) continue;
+        const int k = s == 0 ? 0 : 2;
+        float* v = d->euler_deg[k].data();
+        for (std::size_t i = b; i < e; ++i) v[i] += add;
+        MinMaxPyramid* pyr = &d->pyramid[4 + k];
+        if (pyr->min.empty()) continue;
+        const std::size_t ke = std::min(pyr->min[0].size(), e / kPyramidBase);
+        for (std::size_t j = b / kPyramidBase; j < ke; ++j) {
+          pyr->min[0][j] += add;
+          pyr->max[0][j] += add;
+        }
+      }
+    });
+  }
   for (int ch : kConvChannels) build_upper_levels(&d->pyramid[ch]);
 }
 
