@@ -390,40 +390,62 @@ std::size_t sample_at_or_after(const Track& track, const TrackPlotData& data, do
   return static_cast<std::size_t>(std::lower_bound(time.begin(), time.end(), t) - time.begin());
 }
 
-PlotEnvelope plot_envelope(const Track& track, const TrackPlotData& data, PlotChannel ch, double t0,
-                           double t1, std::size_t columns) {
-  PlotEnvelope env;
-  env.t0 = t0;
-  env.t1 = t1;
-  const std::size_t n = track.size();
-  if (n == 0 || columns == 0 || !(t1 > t0)) return env;
-  const std::size_t i0 = sample_at_or_after(track, data, t0);
-  const std::size_t i1 = sample_at_or_after(track, data, t1);
-  if (i1 - i0 <= 2 * columns) {
-    env.points = true;
-    env.first = i0 > 0 ? i0 - 1 : 0;
-    env.last = std::min(n - 1, i1);
-    return env;
-  }
-  const float nan = std::numeric_limits<float>::quiet_NaN();
-  env.min.assign(columns, nan);
-  env.max.assign(columns, nan);
+std::vector<std::size_t> envelope_columns(const Track& track, const TrackPlotData& data, double t0, double t1,
+                                          std::size_t columns) {
+  std::vector<std::size_t> begin(columns + 1);
+  if (columns == 0) return begin;
+  begin[0] = sample_at_or_after(track, data, t0);
+  begin[columns] = std::max(begin[0], sample_at_or_after(track, data, t1));
+  const bool snap = (begin[columns] - begin[0]) / columns >= kEnvelopeSnapSamples;
   const double w = (t1 - t0) / static_cast<double>(columns);
-  std::size_t a = i0;
-  for (std::size_t col = 0; col < columns; ++col) {
-    const std::size_t b =
-        col + 1 == columns ? i1 : sample_at_or_after(track, data, t0 + static_cast<double>(col + 1) * w);
-    if (b > a) {
+  for (std::size_t col = 1; col < columns; ++col) {
+    std::size_t b = sample_at_or_after(track, data, t0 + static_cast<double>(col) * w);
+    if (snap) b = (b + kPyramidBase / 2) / kPyramidBase * kPyramidBase;
+    begin[col] = std::min(begin[columns], std::max(begin[col - 1], b));
+  }
+  return begin;
+}
+
+std::vector<PlotEnvelope> plot_envelopes(const Track& track, const TrackPlotData& data,
+                                         const std::vector<PlotChannel>& channels, double t0, double t1,
+                                         std::size_t columns) {
+  std::vector<PlotEnvelope> out(channels.size());
+  for (PlotEnvelope& env : out) {
+    env.t0 = t0;
+    env.t1 = t1;
+  }
+  const std::size_t n = track.size();
+  if (n == 0 || columns == 0 || !(t1 > t0)) return out;
+  const std::vector<std::size_t> begin = envelope_columns(track, data, t0, t1, columns);
+  const std::size_t i0 = begin.front(), i1 = begin.back();
+  const float nan = std::numeric_limits<float>::quiet_NaN();
+  for (std::size_t c = 0; c < channels.size(); ++c) {
+    PlotEnvelope& env = out[c];
+    env.first = i0 > 0 ? i0 - 1 : 0;
+    env.last = n > 0 ? std::min(n - 1, i1) : 0;
+    if (i1 - i0 <= 2 * columns) {
+      env.points = true;
+      continue;
+    }
+    env.column_begin = begin;
+    env.min.assign(columns, nan);
+    env.max.assign(columns, nan);
+    for (std::size_t col = 0; col < columns; ++col) {
+      if (begin[col + 1] <= begin[col]) continue;
       float lo, hi;
-      channel_range(track, data, ch, a, b, &lo, &hi);
+      channel_range(track, data, channels[c], begin[col], begin[col + 1], &lo, &hi);
       if (lo <= hi) {
         env.min[col] = lo;
         env.max[col] = hi;
       }
     }
-    a = std::max(a, b);
   }
-  return env;
+  return out;
+}
+
+PlotEnvelope plot_envelope(const Track& track, const TrackPlotData& data, PlotChannel ch, double t0,
+                           double t1, std::size_t columns) {
+  return plot_envelopes(track, data, {ch}, t0, t1, columns).front();
 }
 
 }  // namespace attiscope

@@ -112,7 +112,12 @@ TEST(TrackPlotTest, EnvelopeEqualsBruteForceMinMaxPerColumn) {
       t0 = -1.0;
       t1 = 2001.0;  // the whole track
     }
-    const std::size_t columns = 1 + static_cast<std::size_t>(u(rng));
+    std::size_t columns = 1 + static_cast<std::size_t>(u(rng));
+    if (trial == 1) {
+      t0 = -1.0;
+      t1 = 2001.0;
+      columns = 100;  // 2000 samples a column: boundaries snapped to pyramid blocks
+    }
     for (int ch = 0; ch < kPlotChannelCount; ++ch) {
       const PlotEnvelope env = plot_envelope(t, d, static_cast<PlotChannel>(ch), t0, t1, columns);
       const std::size_t i0 = sample_at_or_after(t, d, t0), i1 = sample_at_or_after(t, d, t1);
@@ -121,18 +126,25 @@ TEST(TrackPlotTest, EnvelopeEqualsBruteForceMinMaxPerColumn) {
         continue;
       }
       ASSERT_EQ(env.min.size(), columns);
+      ASSERT_EQ(env.column_begin.size(), columns + 1);
+      EXPECT_EQ(env.column_begin.front(), i0);
+      EXPECT_EQ(env.column_begin.back(), i1);
       const double w = (t1 - t0) / static_cast<double>(columns);
-      std::size_t a = i0;
       for (std::size_t col = 0; col < columns; ++col) {
-        const std::size_t b =
-            col + 1 == columns ? i1 : sample_at_or_after(t, d, t0 + static_cast<double>(col + 1) * w);
+        const std::size_t a = env.column_begin[col], b = env.column_begin[col + 1];
+        // Each boundary is the first sample of its column's time, or within half a pyramid
+        // block of it when columns hold many samples.
+        if (col > 0) {
+          const std::size_t exact = sample_at_or_after(t, d, t0 + static_cast<double>(col) * w);
+          const std::size_t slack = (i1 - i0) / columns >= kEnvelopeSnapSamples ? kPyramidBase / 2 : 0;
+          ASSERT_LE(std::max(a, exact) - std::min(a, exact), slack) << "trial " << trial << " column " << col;
+        }
         float lo = INFINITY, hi = -INFINITY;
         for (std::size_t i = a; i < b; ++i) {
           const float v = static_cast<float>(plot_value(t, d, static_cast<PlotChannel>(ch), i));
           if (v < lo) lo = v;
           if (v > hi) hi = v;
         }
-        a = std::max(a, b);
         if (lo > hi) {
           ASSERT_TRUE(std::isnan(env.min[col]))
               << "trial " << trial << " channel " << ch << " column " << col;

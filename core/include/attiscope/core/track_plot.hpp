@@ -78,16 +78,33 @@ void channel_range(const Track& track, const TrackPlotData& data, PlotChannel ch
 /// First sample whose (sorted) time is >= t.
 std::size_t sample_at_or_after(const Track& track, const TrackPlotData& data, double t);
 
+/// When a pixel column holds at least this many samples, the inner column boundaries are
+/// moved to the nearest multiple of kPyramidBase (at most 32 samples, under 1/16 of a
+/// column), so each column is whole pyramid blocks and costs a few lookups, not a scan.
+inline constexpr std::size_t kEnvelopeSnapSamples = 8 * kPyramidBase;
+
 /// A channel decimated to pixel columns over [t0, t1).
 struct PlotEnvelope {
   double t0 = 0.0, t1 = 0.0;
-  /// Column c covers [t0 + c w, t0 + (c + 1) w), w = (t1 - t0) / columns. NaN: no sample.
+  /// Per column: min and max over samples [column_begin[c], column_begin[c + 1]); NaN when
+  /// the column holds no finite value. Column c covers the time [t0 + c w, t0 + (c + 1) w),
+  /// w = (t1 - t0) / columns, its boundaries moved as kEnvelopeSnapSamples says.
   std::vector<float> min, max;
+  std::vector<std::size_t> column_begin;  ///< columns + 1 sample indices (empty when points)
   /// true when the window holds at most two samples per column: draw the samples
   /// [first, last] as a line instead (first and last include one sample beyond each edge).
   bool points = false;
   std::size_t first = 0, last = 0;
 };
+
+/// The sample boundaries of the pixel columns of [t0, t1): columns + 1 indices.
+std::vector<std::size_t> envelope_columns(const Track& track, const TrackPlotData& data, double t0, double t1,
+                                          std::size_t columns);
+
+/// The envelopes of several channels over one window (the column boundaries are found once).
+std::vector<PlotEnvelope> plot_envelopes(const Track& track, const TrackPlotData& data,
+                                         const std::vector<PlotChannel>& channels, double t0, double t1,
+                                         std::size_t columns);
 
 PlotEnvelope plot_envelope(const Track& track, const TrackPlotData& data, PlotChannel ch, double t0,
                            double t1, std::size_t columns);
