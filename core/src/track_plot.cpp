@@ -17,6 +17,8 @@ namespace {
 constexpr double kDeg = 180.0 / M_PI;
 constexpr double kTurn = 2.0 * M_PI;
 constexpr float kInf = std::numeric_limits<float>::infinity();
+constexpr std::size_t kPyramidShift = 6;  // kPyramidBase == 1 << kPyramidShift
+static_assert(kPyramidBase == std::size_t{1} << kPyramidShift, "kPyramidBase is a power of two");
 // Samples converted per call of track_euler (four double buffers on the stack: 64 KB).
 constexpr std::size_t kChunk = 2048;
 // Part boundaries are multiples of this, so each part owns whole pyramid blocks.
@@ -57,8 +59,8 @@ void build_level0(const T* v, std::size_t block_begin, std::size_t block_end, Mi
   for (std::size_t k = block_begin; k < block_end; ++k) {
     float lo = kInf, hi = -kInf;
     scan_min_max(v, k * kPyramidBase, (k + 1) * kPyramidBase, &lo, &hi);
-    p->min[0][k] = lo;
-    p->max[0][k] = hi;
+    p->level[0][2 * k] = lo;
+    p->level[0][2 * k + 1] = hi;
   }
 }
 
@@ -66,20 +68,20 @@ void size_pyramid(std::size_t n, MinMaxPyramid* p) {
   p->samples = n;
   std::size_t levels = 0;
   for (std::size_t size = kPyramidBase; n / size >= 1; size *= 2) ++levels;
-  p->min.resize(levels);
-  p->max.resize(levels);
+  p->level.resize(levels);
   std::size_t size = kPyramidBase;
   for (std::size_t l = 0; l < levels; ++l, size *= 2) {
-    p->min[l].resize(n / size);
-    p->max[l].resize(n / size);
+    p->level[l].resize(2 * (n / size));
   }
 }
 
 void build_upper_levels(MinMaxPyramid* p) {
-  for (std::size_t l = 1; l < p->min.size(); ++l) {
-    for (std::size_t k = 0; k < p->min[l].size(); ++k) {
-      p->min[l][k] = std::min(p->min[l - 1][2 * k], p->min[l - 1][2 * k + 1]);
-      p->max[l][k] = std::max(p->max[l - 1][2 * k], p->max[l - 1][2 * k + 1]);
+  for (std::size_t l = 1; l < p->levels(); ++l) {
+    const std::vector<float>& below = p->level[l - 1];
+    std::vector<float>& here = p->level[l];
+    for (std::size_t k = 0; k < p->blocks(l); ++k) {
+      here[2 * k] = std::min(below[4 * k], below[4 * k + 2]);
+      here[2 * k + 1] = std::max(below[4 * k + 1], below[4 * k + 3]);
     }
   }
 }
@@ -89,26 +91,28 @@ void pyramid_range(const T* v, const MinMaxPyramid& p, std::size_t a, std::size_
   *mn = kInf;
   *mx = -kInf;
   while (a < b) {
-    if (a % kPyramidBase != 0 || b - a < kPyramidBase || p.min.empty()) {
+    if (a % kPyramidBase != 0 || b - a < kPyramidBase || p.empty()) {
       const std::size_t next = (a / kPyramidBase + 1) * kPyramidBase;
-      const std::size_t stop = (b - a < kPyramidBase || p.min.empty()) ? b : std::min(b, next);
+      const std::size_t stop = (b - a < kPyramidBase || p.empty()) ? b : std::min(b, next);
       scan_min_max(v, a, stop, mn, mx);
       a = stop;
       continue;
     }
     // a is block-aligned: take the largest whole block that starts at a and ends by b.
-    std::size_t level = 0, size = kPyramidBase;
-    while (level + 1 < p.min.size() && a % (2 * size) == 0 && a + 2 * size <= b) {
+    // Block sizes are powers of two: masks and shifts, no division.
+    std::size_t level = 0, size = kPyramidBase, shift = kPyramidShift;
+    while (level + 1 < p.levels() && (a & (2 * size - 1)) == 0 && a + 2 * size <= b) {
       ++level;
       size *= 2;
+      ++shift;
     }
-    const std::size_t k = a / size;
-    if (k >= p.min[level].size()) {  // the tail of the track, shorter than a block
+    const std::size_t k = a >> shift;
+    if (k >= p.blocks(level)) {  // the tail of the track, shorter than a block
       scan_min_max(v, a, b, mn, mx);
       return;
     }
-    *mn = std::min(*mn, p.min[level][k]);
-    *mx = std::max(*mx, p.max[level][k]);
+    *mn = std::min(*mn, p.level[level][2 * k]);
+    *mx = std::max(*mx, p.level[level][2 * k + 1]);
     a += size;
   }
 }
@@ -210,8 +214,8 @@ void convert_part(const Track& t, const EulerConvention& c, AngleMode mode, std:
     const std::size_t kb = i0 / kPyramidBase;
     for (int ch = 4; ch < 8; ++ch) {
       MinMaxPyramid* p = &d->pyramid[ch];
-      if (p->min.empty()) continue;
-      const std::size_t ke = std::min(p->min[0].size(), (i0 + len) / kPyramidBase);
+      if (p->empty()) continue;
+      const std::size_t ke = std::min(p->blocks(0), (i0 + len) / kPyramidBase);
       const float* v = ch == 7 ? d->lock_margin_deg.data() : d->euler_deg[ch - 4].data();
       build_level0(v, kb, ke, p);
     }
@@ -243,8 +247,7 @@ auto with_channel(const Track& t, const TrackPlotData& d, PlotChannel ch, Fn&& f
 
 std::size_t MinMaxPyramid::bytes() const {
   std::size_t b = 0;
-  for (const auto& l : min) b += l.capacity() * sizeof(float);
-  for (const auto& l : max) b += l.capacity() * sizeof(float);
+  for (const auto& l : level) b += l.capacity() * sizeof(float);
   return b;
 }
 
@@ -319,11 +322,11 @@ void set_plot_convention(const Track& track, const EulerConvention& c, AngleMode
         float* v = d->euler_deg[k].data();
         for (std::size_t i = b; i < e; ++i) v[i] += add;
         MinMaxPyramid* pyr = &d->pyramid[4 + k];
-        if (pyr->min.empty()) continue;
-        const std::size_t ke = std::min(pyr->min[0].size(), e / kPyramidBase);
+        if (pyr->empty()) continue;
+        const std::size_t ke = std::min(pyr->blocks(0), e / kPyramidBase);
         for (std::size_t j = b / kPyramidBase; j < ke; ++j) {
-          pyr->min[0][j] += add;
-          pyr->max[0][j] += add;
+          pyr->level[0][2 * j] += add;
+          pyr->level[0][2 * j + 1] += add;
         }
       }
     });
@@ -350,9 +353,9 @@ void build_track_plot(const Track& track, const EulerConvention& c, AngleMode mo
   for (int ch : kFixedChannels) {
     MinMaxPyramid* p = &d->pyramid[ch];
     size_pyramid(n, p);
-    if (p->min.empty()) continue;
+    if (p->empty()) continue;
     with_channel(track, *d, static_cast<PlotChannel>(ch), [&](const auto* v) {
-      build_level0(v, 0, p->min[0].size(), p);
+      build_level0(v, 0, p->blocks(0), p);
       return 0;
     });
     build_upper_levels(p);

@@ -35,10 +35,14 @@ inline constexpr int kPlotChannelCount = 9;
 inline constexpr std::size_t kPyramidBase = 64;
 
 struct MinMaxPyramid {
-  /// level[L] holds (min, max) of full blocks of kPyramidBase << L samples.
-  std::vector<std::vector<float>> min, max;
+  /// level[L] holds (min, max) pairs, interleaved (one cache line serves both), of the
+  /// full blocks of kPyramidBase << L samples.
+  std::vector<std::vector<float>> level;
   std::size_t samples = 0;
 
+  bool empty() const { return level.empty(); }
+  std::size_t levels() const { return level.size(); }
+  std::size_t blocks(std::size_t l) const { return level[l].size() / 2; }
   std::size_t bytes() const;
 };
 
