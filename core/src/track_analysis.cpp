@@ -3,8 +3,10 @@
 #include "attiscope/core/track_analysis.hpp"
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 
+#include "attiscope/core/batch.hpp"
 #include "attiscope/core/quaternion.hpp"
 #include "track_parallel.hpp"
 
@@ -36,23 +38,21 @@ double quaternion_step_angle(double aw, double ax, double ay, double az, double 
 
 void track_euler(const Track& track, std::size_t begin, std::size_t end, const EulerConvention& c, double* a,
                  double* b, double* cc, double* margin) {
-  // TODO(batch): replace this loop by core/batch.hpp's kernel once it is on main.
-  const double nan = std::numeric_limits<double>::quiet_NaN();
-  for (std::size_t i = begin; i < end; ++i) {
-    const Eigen::Quaterniond q(track.qw[i], track.qx[i], track.qy[i], track.qz[i]);
-    const double n = q.norm();
-    const std::size_t o = i - begin;
-    if (!(n >= kMinQuaternionNorm) || !std::isfinite(n)) {
-      a[o] = b[o] = cc[o] = nan;
-      if (margin) margin[o] = nan;
-      continue;
-    }
-    const EulerAngles e = to_euler(Rotation(q), c);
-    a[o] = e.angles_rad(0);
-    b[o] = e.angles_rad(1);
-    cc[o] = e.angles_rad(2);
-    if (margin) margin[o] = e.lock_margin_rad;
-  }
+  // The batch kernel (batch.hpp) gives to_euler's angles, ranges and lock rule for any norm
+  // and either sign, and NaN for a sample that is not a rotation.
+  const std::size_t n = end - begin;
+  const QuaternionColumns q{{track.qw.data() + begin, n},
+                            {track.qx.data() + begin, n},
+                            {track.qy.data() + begin, n},
+                            {track.qz.data() + begin, n}};
+  EulerColumnsOut out;
+  out.a1 = {a, n};
+  out.a2 = {b, n};
+  out.a3 = {cc, n};
+  if (margin) out.lock_margin = {margin, n};
+  const auto done = quaternions_to_euler(q, c, out);
+  assert(done.ok() && "track_euler: the columns of a track have one size and do not overlap");
+  (void)done;
 }
 
 namespace {
