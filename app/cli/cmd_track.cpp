@@ -16,7 +16,7 @@ namespace {
 const char* kTrackHelp =
     "usage: attiscope track FILE [--json] [--euler SEQ] [--rate-limit DEG_PER_S] [options]\n"
     "\n"
-    "Reads a pose log (CSV, TSV, whitespace columns or JSON lines; a time column and the\n"
+    "Reads a pose log (columns separated by commas, semicolons, tabs or spaces; the time and\n"
     "rotation columns are found from the header and the numbers) and prints its summary and\n"
     "every discontinuity found. An event's sample is the 0-based index of the first sample\n"
     "after the discontinuity. Kinds: sign_flip (all four quaternion numbers changed sign, same\n"
