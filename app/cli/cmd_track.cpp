@@ -4,6 +4,7 @@
 #include <fstream>
 #include <iostream>
 
+#include "attiscope/core/columns.hpp"
 #include "attiscope/core/track_analysis.hpp"
 #include "attiscope/core/track_clean.hpp"
 #include "attiscope/core/track_report.hpp"
@@ -119,10 +120,48 @@ std::optional<std::string> export_options(const CommonOptions& o, TrackExportOpt
   return std::nullopt;
 }
 
-// Reads a pose log into a Track.
-// INTAKE: replace this call by the intake's find_columns + read_track_file once it is on main.
-Expected<Track> read_log(const std::string& path, const CommonOptions&) {
-  return Error{"cannot read '" + path + "': the log reader (intake) is not part of this build yet"};
+// Reads a pose log into a Track with the intake's column finding and reader; --as forces
+// the reading of the rotation columns. `notes` receives how the columns were chosen.
+Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::vector<std::string>* notes) {
+  auto head = read_file_head(path);
+  if (!head) return head.error();
+  ColumnPreferences prefs;
+  if (o.as == ReadingKind::QuatXyzw) prefs.quat_layout = QuatLayout::ScalarLast;
+  if (o.as == ReadingKind::MatrixCols) prefs.matrix_storage = MatrixStorage::Columns;
+  auto found = find_columns(head.value(), prefs);
+  if (!found) return found.error();
+  ColumnMapping mapping = found.value();
+  if (o.as) {
+    std::optional<TrackForm> forced;
+    switch (*o.as) {
+      case ReadingKind::QuatWxyz: forced = TrackForm::QuatWxyz; break;
+      case ReadingKind::QuatXyzw: forced = TrackForm::QuatXyzw; break;
+      case ReadingKind::MatrixRows: forced = TrackForm::MatrixRows; break;
+      case ReadingKind::MatrixCols: forced = TrackForm::MatrixCols; break;
+      default: break;
+    }
+    if (!forced)
+      return Error{"--as " + reading_kind_name(*o.as) + " is not a track reading: use " +
+                   "quat-wxyz, quat-xyzw, matrix-rows or matrix-cols"};
+    // --as went into find_columns as the house choice, which decides when the header and the
+    // numbers do not. When they do decide, the columns are read as they say (the reader
+    // already put them in the form's order), and the note says --as was not needed.
+    const bool forced_quat = *forced == TrackForm::QuatWxyz || *forced == TrackForm::QuatXyzw;
+    const bool found_quat = mapping.form == TrackForm::QuatWxyz || mapping.form == TrackForm::QuatXyzw;
+    if (forced_quat != found_quat) {
+      return Error{"--as " + reading_kind_name(*o.as) + " does not fit this log: its rotation columns are " +
+                   (found_quat ? "four quaternion numbers" : "nine matrix numbers")};
+    }
+    if (*forced != mapping.form) {
+      notes->push_back("--as " + reading_kind_name(*o.as) + " not applied: the log's columns decide (" +
+                       track_form_name(mapping.form) + " after ordering)");
+    }
+  }
+  for (const std::string& n : mapping.notes) notes->push_back(n);
+  if (mapping.ambiguous && !o.as) {
+    notes->push_back("the columns' reading is ambiguous: check it, or force one with --as");
+  }
+  return read_track_file(path, mapping);
 }
 
 }  // namespace
@@ -162,7 +201,8 @@ int run_track(const std::vector<std::string>& args, Streams io) {
   }
 
   const std::string& path = o.positional[0];
-  auto track = read_log(path, o);
+  std::vector<std::string> notes;
+  auto track = read_log(path, o, &notes);
   if (!track) {
     io.err << "attiscope track: " << path << ": " << track.error().describe() << "\n";
     return kExitBadInput;
@@ -190,9 +230,12 @@ int run_track(const std::vector<std::string>& args, Streams io) {
     exported = std::move(summary);
   }
   if (o.json) {
-    io.out << track_json(t, d, diag, exported).dump(2) << "\n";
+    nlohmann::json j = track_json(t, d, diag, exported);
+    j["column_notes"] = notes;
+    io.out << j.dump(2) << "\n";
   } else {
     io.out << "track: " << path << "\n" << track_table(t, d, diag, exported);
+    for (const std::string& n : notes) io.out << "note: " << n << "\n";
   }
   return kExitOk;
 }
