@@ -23,6 +23,7 @@ const Subcommand kSubcommands[] = {
     {"compare", "relative rotation, angle, per-axis error; mean and spread", run_compare},
     {"mount", "mount check: nominal vs measured, or a solve from vector pairs", run_mount},
     {"read", "print the ranked readings of pasted text", run_read},
+    {"track", "summary and diagnosis of a pose log; clean copy as CSV", run_track},
 };
 
 void print_usage(std::ostream& os) {

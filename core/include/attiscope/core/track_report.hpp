@@ -1,0 +1,43 @@
+// track_report.hpp: what `attiscope track` prints about a pose log, as the `track --json`
+// object (design.md) and as a readable table. The Track panel's copy-as-JSON uses the same
+// function.
+//
+// JSON keys others rely on: samples, bad_rows [{line, reason}], events [{sample, kind}],
+// columns, duration_s. More keys: reading, has_time, time_unit, rate_hz, euler, counts,
+// near_lock_spans, min_lock_margin_deg, max_rate_deg_s, max_rate_sample, options, and
+// "clean" when a clean copy was exported. Angles in degrees; numbers round-trip (17 digits).
+#pragma once
+
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "attiscope/core/track.hpp"
+#include "attiscope/core/track_analysis.hpp"
+#include "attiscope/core/track_clean.hpp"
+
+namespace attiscope {
+
+/// What was exported, for the report.
+struct TrackExportSummary {
+  std::string path;
+  TrackExportOptions options;
+  std::vector<CleanChange> changes;  ///< clean_track's, then the Euler unwrap's
+};
+
+/// One event as JSON: {"sample", "kind", "count", "time_s"} and a kind-specific detail
+/// ("dot", "angle" and "step_deg", "norm", "dt_s", "peak_rate_deg_s").
+nlohmann::json track_event_json(const Track& track, const TrackEvent& e);
+
+/// The `track --json` object.
+nlohmann::json track_json(const Track& track, const TrackDiagnosis& d, const TrackDiagnosisOptions& o,
+                          const std::optional<TrackExportSummary>& exported = std::nullopt);
+
+/// The same content as text. At most `max_rows` events and bad rows are listed (the count
+/// of the rest is said); the JSON always lists all.
+std::string track_table(const Track& track, const TrackDiagnosis& d, const TrackDiagnosisOptions& o,
+                        const std::optional<TrackExportSummary>& exported = std::nullopt,
+                        std::size_t max_rows = 40);
+
+}  // namespace attiscope
