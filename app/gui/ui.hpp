@@ -8,6 +8,7 @@
 #include <string>
 
 #include <imgui.h>
+#include <nlohmann/json.hpp>
 
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
@@ -42,6 +43,8 @@ struct Ui {
   /// Screen rectangles of named widgets this frame ("quaternion.0", "undo"...), so test
   /// scripts can click them like a person would.
   std::map<std::string, ImVec4> widgets;
+  /// What the Intake panel lists this frame (readings as shown, or the error), for dumps.
+  nlohmann::json intake_listing;
 };
 
 /// Records the last ImGui item under a test name.

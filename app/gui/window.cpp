@@ -203,6 +203,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["scene_viewport"] = rect(ui.scene_viewport);
   j["gimbal_viewport"] = rect(ui.gimbal_viewport);
   j["status"] = ui.status;
+  j["intake"] = ui.intake_listing;
   return j;
 }
 
