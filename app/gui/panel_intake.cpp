@@ -242,8 +242,8 @@ void list_readings(Ui& ui, const std::string& text) {
   }
   if (res.ambiguous) {
     strip(kAmbiguousBg,
-          "AMBIGUOUS: the text does not decide between the first readings; the house convention "
-          "put this one first. Check which one your source meant before you load it.");
+          "AMBIGUOUS: the text does not decide; the house convention ordered the readings. "
+          "Check what your source meant before you load one.");
   }
   ImGui::TextDisabled("%s: %zu reading%s, best first", res.shape.c_str(), res.readings.size(),
                       res.readings.size() == 1 ? "" : "s");
@@ -264,7 +264,7 @@ void draw_intake(Ui& ui) {
   // A fixed buffer: ImGui 1.86 edits a char array; the text lives in Ui between frames.
   std::string buffer = ui.intake_text;
   buffer.resize(kIntakeCapacity, '\0');
-  const float h = std::max(3.0f * ImGui::GetFontSize(), ImGui::GetContentRegionAvail().y * 0.22f);
+  const float h = std::max(3.0f * ImGui::GetFontSize(), ImGui::GetContentRegionAvail().y * 0.14f);
   if (ui.mono) ImGui::PushFont(ui.mono);
   if (ImGui::InputTextMultiline("##paste", buffer.data(), buffer.size(), ImVec2(-1.0f, h))) {
     ui.intake_text = std::string(buffer.c_str());
