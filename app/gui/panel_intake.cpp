@@ -174,17 +174,18 @@ void show_reading(Ui& ui, const Reading& r, std::size_t index, nlohmann::json& l
   ImGui::BeginGroup();
   draw_score(ui, r.score);
   ImGui::SameLine();
-  if (ui.heading) ImGui::PushFont(ui.heading);
-  ImGui::Text("%zu. %s", index + 1, title_of(r).c_str());
-  if (ui.heading) ImGui::PopFont();
-  ImGui::SameLine();
-  const std::string load = "Load##" + std::to_string(index);
+  const std::string load = "Load this reading##" + std::to_string(index);
   if (ImGui::SmallButton(load.c_str())) {
     ui.doc.set_pose(r.rotation, "intake: " + title_of(r));
     ui.status = "loaded " + title_of(r) + " from the intake";
   }
   record_widget(ui, "intake.load." + std::to_string(index));
   if (ImGui::IsItemHovered()) ImGui::SetTooltip("Set the pose to this reading (Ctrl+Z undoes it)");
+  if (ui.heading) ImGui::PushFont(ui.heading);
+  ImGui::PushTextWrapPos(0.0f);
+  ImGui::Text("%zu. %s", index + 1, title_of(r).c_str());
+  ImGui::PopTextWrapPos();
+  if (ui.heading) ImGui::PopFont();
   ImGui::PushTextWrapPos(0.0f);
   ImGui::TextUnformatted(r.why.c_str());
   ImGui::PopTextWrapPos();
@@ -196,7 +197,8 @@ void show_reading(Ui& ui, const Reading& r, std::size_t index, nlohmann::json& l
     ImGui::PopStyleColor();
   }
   if (ui.mono) ImGui::PushFont(ui.mono);
-  ImGui::Text("q  w %+.6f  x %+.6f  y %+.6f  z %+.6f", q.w(), q.x(), q.y(), q.z());
+  ImGui::Text("w %+.6f  x %+.6f", q.w(), q.x());
+  ImGui::Text("y %+.6f  z %+.6f", q.y(), q.z());
   if (r.translation) {
     const Eigen::Vector3d& t = *r.translation;
     ImGui::Text("t  x %+.6g  y %+.6g  z %+.6g", t.x(), t.y(), t.z());
