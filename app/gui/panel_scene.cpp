@@ -176,6 +176,18 @@ void export_popup(Ui& ui, ViewState& v) {
   ImGui::EndPopup();
 }
 
+/// Puts the next item on this line when `width` more fits, else on a new line.
+void same_line_if_fits(float width, float gap = -1.0f) {
+  const ImGuiStyle& st = ImGui::GetStyle();
+  const float spacing = gap < 0.0f ? st.ItemSpacing.x : gap;
+  const float right = ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x;
+  if (ImGui::GetItemRectMax().x + spacing + width <= right) ImGui::SameLine(0.0f, spacing);
+}
+
+float small_button_width(const char* label) {
+  return ImGui::CalcTextSize(label, nullptr, true).x + 2.0f * ImGui::GetStyle().FramePadding.x;
+}
+
 void view_controls(Ui& ui, ViewState& v) {
   ImGui::SameLine();
   ImGui::Checkbox("Reference", &v.show_ghost);
@@ -186,13 +198,14 @@ void view_controls(Ui& ui, ViewState& v) {
   record_widget(ui, "scene.set_reference");
   if (ImGui::IsItemHovered()) ImGui::SetTooltip("set the reference pose to the current pose (undoable)");
   for (std::size_t i = 0; i < std::size(kPresets); ++i) {
-    ImGui::SameLine(0.0f, i == 0 ? ImGui::GetFontSize() : -1.0f);
     const std::string name = render::view_preset_name(kPresets[i]);
+    same_line_if_fits(small_button_width(name.c_str()), i == 0 ? ImGui::GetFontSize() : -1.0f);
     if (ImGui::SmallButton(name.c_str())) set_preset(v, kPresets[i]);
     record_widget(ui, "scene.view." + name);
     if (ImGui::IsItemHovered()) ImGui::SetTooltip("view from the world's %s (key %zu)", name.c_str(), i + 1);
   }
-  ImGui::SameLine(0.0f, ImGui::GetFontSize());
+  same_line_if_fits(small_button_width("Export PNG...") + ImGui::GetStyle().FramePadding.x,
+                    ImGui::GetFontSize());
   export_popup(ui, v);
 }
 

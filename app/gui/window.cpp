@@ -161,7 +161,7 @@ void draw_panels(Ui& ui) {
 
   const float right_x = left_w;
   const float right_w = std::max(1.0f, w - left_w);
-  const float scene_h = std::floor(body_h * 0.58f);
+  const float scene_h = std::floor(body_h * 0.54f);
   const ImGuiWindowFlags view = fixed | ImGuiWindowFlags_NoBackground | ImGuiWindowFlags_NoScrollbar |
                                 ImGuiWindowFlags_NoScrollWithMouse;
   ui.scene_viewport = {};

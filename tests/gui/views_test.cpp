@@ -185,5 +185,30 @@ TEST_F(ViewsTest, RingsNumbersAreCoresAndTableRowsPickTheConvention) {
   EXPECT_FALSE(has_widget(house, "gimbal.warning"));
 }
 
+TEST_F(ViewsTest, ExportWritesThePictureAndNeverOverwritesSilently) {
+  std::filesystem::create_directories(dir_ / "pictures");
+  setenv("XDG_PICTURES_DIR", path("pictures").c_str(), 1);
+  ASSERT_EQ(run("frames 3\nclick scene.export\nframes 2\nclick scene.export_save\nframes 3\ndump " +
+                path("1.json") + "\nclick scene.export_save\nframes 2\ndump " + path("2.json") + "\n"),
+            0)
+      << err_;
+  unsetenv("XDG_PICTURES_DIR");
+  std::vector<std::filesystem::path> files;
+  for (const auto& f : std::filesystem::directory_iterator(dir_ / "pictures")) files.push_back(f.path());
+  ASSERT_EQ(files.size(), 1u) << "the export did not write one picture in the pictures folder";
+  EXPECT_EQ(files[0].extension(), ".png");
+  int w = 0, h = 0, n = 0;
+  unsigned char* px = stbi_load(files[0].c_str(), &w, &h, &n, 3);
+  ASSERT_NE(px, nullptr);
+  EXPECT_EQ(w, 1024);
+  EXPECT_EQ(h, 768);
+  stbi_image_free(px);
+  const auto d1 = dump("1.json"), d2 = dump("2.json");
+  EXPECT_FALSE(d1["views"]["export"]["failed"].get<bool>()) << d1["views"]["export"]["message"];
+  // The same name again: the popup says the file exists and Save waits for "overwrite it".
+  EXPECT_TRUE(has_widget(d2, "scene.export_overwrite"));
+  EXPECT_TRUE(std::filesystem::is_empty(dir_ / "cwd")) << "the export wrote into the working folder";
+}
+
 }  // namespace
 }  // namespace attiscope::gui
