@@ -130,7 +130,7 @@ void draw_gimbal_panel(Ui& ui) {
     ImGui::TextWrapped(e.at_lock ? "AT GIMBAL LOCK in %s: outer and inner axes coincide; the third angle is "
                                    "set to 0 and the first carries the free turn."
                                  : "NEAR GIMBAL LOCK in %s: outer and inner rings almost align; angle "
-                                   "rates grow without bound. Pick a safer convention below.",
+                                   "rates grow without bound. Pick a safer convention in the table.",
                        c.name().c_str());
     ImGui::PopStyleColor();
     record_widget(ui, "gimbal.warning");

@@ -126,6 +126,7 @@ void views_draw(const Ui& ui) {
     st.camera.distance = kRingsViewDistance;
     st.rings = to_euler(ui.doc.pose(), rings_convention(ui));
     st.show_world_triad = false;
+    st.show_grid = false;
     g_renderer->draw(st, region_of(ui.gimbal_viewport, fb_h));
   }
 }
