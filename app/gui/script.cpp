@@ -18,8 +18,8 @@ std::string trim(const std::string& s) {
   return s.substr(b, e - b + 1);
 }
 
-const char* const kOps[] = {"frames", "click", "type",       "key", "clipboard",
-                            "resize", "dump",  "screenshot", "quit"};
+const char* const kOps[] = {"frames", "click", "type",       "key",  "clipboard", "resize",
+                            "dump",   "drag",  "screenshot", "quit", "scroll"};
 
 }  // namespace
 
@@ -47,9 +47,31 @@ Expected<std::vector<ScriptStep>> parse_script(const std::string& text) {
       auto k = parse_key_spec(step.arg);
       if (!k) return Error{k.error().message, line, static_cast<int>(sp + 2)};
     }
+    if (step.op == "drag") {
+      auto d = parse_drag_spec(step.arg);
+      if (!d) return Error{d.error().message, line, static_cast<int>(sp + 2)};
+    }
     steps.push_back(step);
   }
   return steps;
+}
+
+Expected<DragSpec> parse_drag_spec(const std::string& spec) {
+  std::istringstream in(spec);
+  DragSpec d;
+  std::string button;
+  if (!(in >> d.widget >> d.dx >> d.dy)) return Error{"drag needs NAME DX DY [left|right|middle]"};
+  if (in >> button) {
+    if (button == "left")
+      d.button = 0;
+    else if (button == "right")
+      d.button = 1;
+    else if (button == "middle")
+      d.button = 2;
+    else
+      return Error{"unknown mouse button '" + button + "'; use left, right or middle"};
+  }
+  return d;
 }
 
 Expected<KeySpec> parse_key_spec(const std::string& spec) {
@@ -80,6 +102,8 @@ Expected<KeySpec> parse_key_spec(const std::string& spec) {
     k.key = GLFW_KEY_BACKSPACE;
   else if (rest.size() == 1 && rest[0] >= 'a' && rest[0] <= 'z')
     k.key = GLFW_KEY_A + (rest[0] - 'a');
+  else if (rest.size() == 1 && rest[0] >= '0' && rest[0] <= '9')
+    k.key = GLFW_KEY_0 + (rest[0] - '0');
   else
     return Error{"unknown key '" + spec + "'"};
   return k;

@@ -4,8 +4,11 @@
 //   frames N            draw N frames with no input
 //   click NAME          move the mouse onto the widget NAME (ui.hpp's names), press, release
 //   type TEXT           type the characters of TEXT (the rest of the line)
-//   key SPEC            press and release a key: enter, tab, escape, backspace, a-z, with
-//                       ctrl+ shift+ alt+ in front ("ctrl+shift+z")
+//   key SPEC            press and release a key: enter, tab, escape, backspace, a-z, 0-9,
+//                       with ctrl+ shift+ alt+ in front ("ctrl+shift+z")
+//   drag NAME DX DY [B] press a mouse button (left, right or middle; left if not given) on
+//                       the centre of widget NAME, move by DX, DY points in steps, release
+//   scroll NAME N       turn the mouse wheel N notches (up is positive) over widget NAME
 //   clipboard TEXT      put TEXT on the clipboard
 //   resize W H          resize the window (screen coordinates)
 //   dump FILE           write the document and every card's numbers as JSON
@@ -39,5 +42,15 @@ struct KeySpec {
   bool alt = false;
 };
 Expected<KeySpec> parse_key_spec(const std::string& spec);
+
+/// A drag: from the centre of a widget, by (dx, dy) points, with a mouse button (0 left,
+/// 1 right, 2 middle).
+struct DragSpec {
+  std::string widget;
+  float dx = 0.0f;
+  float dy = 0.0f;
+  int button = 0;
+};
+Expected<DragSpec> parse_drag_spec(const std::string& spec);
 
 }  // namespace attiscope::gui

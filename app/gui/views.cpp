@@ -1,18 +1,169 @@
-// views.cpp: the hook between the window and render/. Without render/ in the build the
-// regions stay empty (the window's clear colour): nothing is drawn that is not real.
-//
-// Integration: build with render/ (CMake defines ATTISCOPE_HAS_RENDER when the target
-// attiscope_render exists), keep a SceneRenderer here, and in views_draw call it with
-// ui.scene_viewport / ui.gimbal_viewport as glViewport + glScissor rectangles and
-// ui.doc.pose() as world_R_body.
+// views.cpp: the hook between the window and render/: one SceneRenderer on the window's GL
+// context draws the Scene and the Gimbal rings straight into their regions, and makes the
+// Scene panel's PNG export (render_image + write_png, as `attiscope render` does). Without
+// render/ in the build the regions stay empty (the window's clear colour): nothing is drawn
+// that is not real.
 #include "gui/views.hpp"
 
+#ifdef ATTISCOPE_HAS_RENDER
+#include <imgui.h>
+
+#include <cmath>
+#include <filesystem>
+#include <memory>
+
+#include "attiscope/render/scene_renderer.hpp"
+#endif
+
 namespace attiscope::gui {
+
+#ifdef ATTISCOPE_HAS_RENDER
+
+namespace {
+
+constexpr double kDegPerRad = 180.0 / 3.14159265358979323846;
+
+// The window's one renderer and view state, alive between views_init and views_shutdown
+// (the GL context's life).
+std::unique_ptr<render::SceneRenderer> g_renderer;
+ViewState g_views;
+std::string g_init_error;
+
+render::Region region_of(const FramebufferRect& r, int framebuffer_height) {
+  // FramebufferRect has GL's bottom-left origin; Region has a top-left one.
+  return render::Region{r.x, framebuffer_height - r.y - r.height, r.width, r.height, framebuffer_height};
+}
+
+void run_export(const Ui& ui) {
+  ViewState& v = g_views;
+  const ExportRequest req = *v.export_request;
+  v.export_request.reset();
+  v.export_failed = true;
+  if (!g_renderer) {
+    v.export_message = "no renderer: " + g_init_error;
+    return;
+  }
+  render::SceneState st = scene_state(ui, req.width, req.height);
+  g_renderer->set_antialiasing(render::Antialiasing::Post);
+  const render::Image image = g_renderer->render_image(st);
+  auto written = render::write_png(req.path, image);
+  if (!written) {
+    v.export_message = written.error().describe();
+    return;
+  }
+  v.export_failed = false;
+  v.export_message =
+      "wrote " + req.path + " (" + std::to_string(req.width) + "x" + std::to_string(req.height) + ")";
+}
+
+}  // namespace
+
+ViewState& view_state() {
+  return g_views;
+}
+
+EulerConvention rings_convention(const Ui& ui) {
+  return g_views.rings_convention.value_or(ui.doc.convention().euler);
+}
+
+render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
+  const ViewState& v = g_views;
+  render::SceneState st;
+  st.world_R_body = ui.doc.pose();
+  if (v.show_ghost) st.ghost_world_R_body = ui.doc.state().world_R_reference;
+  st.model = v.model;
+  st.camera = v.camera;
+  const DisplayConvention& house = ui.doc.convention();
+  st.world = render::parse_world_frame(house.world_frame).value_or(render::WorldFrame::enu());
+  st.body = render::parse_body_frame(house.body_frame).value_or(render::BodyFrame::flu());
+  st.width_px = width_px;
+  st.height_px = height_px;
+  return st;
+}
+
+const render::Mesh* scene_mesh() {
+  return g_renderer ? &g_renderer->mesh(g_views.model) : nullptr;
+}
+
+void views_init() {
+  g_views = ViewState{};
+  g_views.camera.distance = kSceneViewDistance;
+  g_init_error.clear();
+  auto r = render::SceneRenderer::create();
+  if (r) {
+    g_renderer = std::move(r.value());
+  } else {
+    g_init_error = r.error().describe();
+  }
+}
+
+void views_shutdown() {
+  g_renderer.reset();
+}
+
+void views_draw(const Ui& ui) {
+  ViewState& v = g_views;
+  if (!g_renderer) return;
+  if (v.pending_user_mesh) {
+    g_renderer->set_user_mesh(*v.pending_user_mesh);
+    v.pending_user_mesh.reset();
+  }
+  if (v.export_request) run_export(ui);
+  // While something moves, draw without the smoothing pass (it costs on llvmpipe and a moving
+  // picture does not need it); the settled frame after the motion is smoothed.
+  const bool moving = v.drag != DragMode::None || ui.spinning;
+  g_renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
+  const ImGuiIO& io = ImGui::GetIO();
+  const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
+  if (!ui.scene_viewport.empty()) {
+    const render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
+    g_renderer->draw(st, region_of(ui.scene_viewport, fb_h));
+  }
+  if (!ui.gimbal_viewport.empty()) {
+    render::SceneState st = scene_state(ui, ui.gimbal_viewport.width, ui.gimbal_viewport.height);
+    st.ghost_world_R_body.reset();
+    st.camera.target = Eigen::Vector3d::Zero();
+    st.camera.distance = kRingsViewDistance;
+    st.rings = to_euler(ui.doc.pose(), rings_convention(ui));
+    st.show_world_triad = false;
+    st.show_grid = false;
+    g_renderer->draw(st, region_of(ui.gimbal_viewport, fb_h));
+  }
+}
+
+nlohmann::json views_dump(const Ui& ui) {
+  const ViewState& v = g_views;
+  nlohmann::json j;
+  j["camera"] = {{"azimuth_deg", v.camera.azimuth_rad * kDegPerRad},
+                 {"elevation_deg", v.camera.elevation_rad * kDegPerRad},
+                 {"distance", v.camera.distance},
+                 {"target", {v.camera.target.x(), v.camera.target.y(), v.camera.target.z()}}};
+  j["model"] = v.model.user_mesh ? v.user_mesh_name : render::model_info(v.model.kind).name;
+  j["ghost"] = v.show_ghost;
+  const EulerConvention c = rings_convention(ui);
+  j["rings"] = {
+      {"sequence", c.sequence()},
+      {"kind", c.kind_name()},
+      {"margin_deg", v.shown_margin_deg},
+      {"condition_number", std::isfinite(v.shown_condition_number) ? nlohmann::json(v.shown_condition_number)
+                                                                   : nlohmann::json("inf")}};
+  j["export"] = {{"message", v.export_message}, {"failed", v.export_failed}};
+  j["renderer"] = g_renderer ? "ok" : g_init_error;
+  return j;
+}
+
+#else
 
 void views_init() {}
 void views_shutdown() {}
 void views_draw(const Ui& ui) {
   (void)ui;
 }
+nlohmann::json views_dump(const Ui& ui) {
+  (void)ui;
+  return nullptr;
+}
+
+#endif
 
 }  // namespace attiscope::gui

@@ -3,9 +3,23 @@
 // draws the panels (whose popups then stay on top). A view sets its own viewport, scissor
 // and depth state and clears its region if it wants another colour; the ImGui backend sets
 // all of its own GL state each frame, so a view need not restore any.
+//
+// The views' own state (camera, model, ghost toggle, the rings' convention, a drag in
+// progress, a pending export) is window state, not document state: it is not undone and
+// holds no rotation of its own. The pose always comes from the document.
 #pragma once
 
+#include <nlohmann/json.hpp>
+
 #include "gui/ui.hpp"
+
+#ifdef ATTISCOPE_HAS_RENDER
+#include <optional>
+#include <string>
+
+#include "attiscope/core/arcball.hpp"
+#include "attiscope/render/scene.hpp"
+#endif
 
 namespace attiscope::gui {
 
@@ -15,5 +29,56 @@ void views_shutdown();
 /// Draws the Scene into ui.scene_viewport and the rings into ui.gimbal_viewport
 /// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport).
 void views_draw(const Ui& ui);
+/// What the views show, for test dumps (null without render/).
+nlohmann::json views_dump(const Ui& ui);
+
+#ifdef ATTISCOPE_HAS_RENDER
+
+/// Camera distance that frames the body alone, and the body inside the gimbal rings (the
+/// same framing as `attiscope render`).
+inline constexpr double kSceneViewDistance = 6.2;
+inline constexpr double kRingsViewDistance = 10.5;
+
+enum class DragMode { None, Body, Orbit, Pan };
+
+/// A PNG export asked for by the Scene panel, made by views_draw (it needs the GL context
+/// between frames).
+struct ExportRequest {
+  std::string path;
+  int width = 1024;
+  int height = 768;
+};
+
+struct ViewState {
+  render::Camera camera = render::Camera::preset(render::ViewPreset::Iso);
+  render::ModelChoice model;
+  std::string user_mesh_name;  ///< file name of the loaded OBJ/STL, when there is one
+  bool show_ghost = false;
+  /// The rings' convention; nullopt follows the house convention's Euler convention.
+  std::optional<EulerConvention> rings_convention;
+  DragMode drag = DragMode::None;
+  ArcballDrag arcball;
+  Eigen::Vector2d drag_last_px = Eigen::Vector2d::Zero();
+  bool drag_moved = false;  ///< the body drag has started its document edit
+  std::optional<ExportRequest> export_request;
+  std::string export_message;  ///< result of the last export
+  bool export_failed = false;
+  std::optional<render::Mesh> pending_user_mesh;  ///< loaded, not yet handed to the renderer
+  // What the Gimbal panel showed last (for dumps and tests).
+  double shown_margin_deg = 0.0;
+  double shown_condition_number = 0.0;
+};
+
+/// The views' state (one window per process).
+ViewState& view_state();
+/// The Scene as drawn this frame: pose and reference from the document, frames from its
+/// house convention, and the view state. width/height: the scene region in pixels.
+render::SceneState scene_state(const Ui& ui, int width_px, int height_px);
+/// The rings' convention: the view's choice, else the house convention's.
+EulerConvention rings_convention(const Ui& ui);
+/// The CPU mesh drawn for the current model (for picking); nullptr before views_init.
+const render::Mesh* scene_mesh();
+
+#endif
 
 }  // namespace attiscope::gui

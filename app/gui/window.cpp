@@ -161,7 +161,7 @@ void draw_panels(Ui& ui) {
 
   const float right_x = left_w;
   const float right_w = std::max(1.0f, w - left_w);
-  const float scene_h = std::floor(body_h * 0.58f);
+  const float scene_h = std::floor(body_h * 0.54f);
   const ImGuiWindowFlags view = fixed | ImGuiWindowFlags_NoBackground | ImGuiWindowFlags_NoScrollbar |
                                 ImGuiWindowFlags_NoScrollWithMouse;
   ui.scene_viewport = {};
@@ -173,7 +173,7 @@ void draw_panels(Ui& ui) {
   }
   const float bottom_y = toolbar_h + scene_h;
   const float bottom_h = std::max(1.0f, body_h - scene_h);
-  const float gimbal_w = std::floor(right_w * 0.42f);
+  const float gimbal_w = std::floor(right_w * 0.6f);
   if (ui.settings.show_gimbal) {
     place(right_x, bottom_y, gimbal_w, bottom_h);
     if (ImGui::Begin("Gimbal rings", nullptr, view)) draw_gimbal_panel(ui);
@@ -204,6 +204,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["gimbal_viewport"] = rect(ui.gimbal_viewport);
   j["status"] = ui.status;
   j["intake"] = ui.intake_listing;
+  j["views"] = views_dump(ui);
   return j;
 }
 
@@ -232,6 +233,8 @@ struct ScriptPlayer {
   int phase = 0;  ///< frame within the current step
   ImVec2 mouse{-FLT_MAX, -FLT_MAX};
   bool mouse_down = false;
+  int mouse_button = 0;  ///< the button mouse_down is about (0 left, 1 right, 2 middle)
+  ImVec2 drag_start;
   std::optional<KeySpec> key_down;
   bool failed = false;
   bool done() const { return next >= steps.size(); }
@@ -242,7 +245,7 @@ struct ScriptPlayer {
 void script_input(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err) {
   ImGuiIO& io = ImGui::GetIO();
   io.MousePos = p.mouse;
-  io.MouseDown[0] = p.mouse_down;
+  io.MouseDown[p.mouse_button] = p.mouse_down;
   if (p.done()) return;
   const ScriptStep& s = p.steps[p.next];
   auto finish = [&p] {
@@ -270,6 +273,45 @@ void script_input(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err
     io.MousePos = p.mouse;
     io.MouseDown[0] = p.mouse_down;
     if (++p.phase > 3) finish();
+  } else if (s.op == "drag") {
+    const DragSpec d = parse_drag_spec(s.arg).value();
+    constexpr int kSteps = 8;  // moves between press and release
+    if (p.phase == 0) {
+      auto it = ui.widgets.find(d.widget);
+      if (it == ui.widgets.end()) return fail("no widget named '" + d.widget + "' on screen");
+      const ImVec4 r = it->second;
+      p.drag_start = ImVec2(0.5f * (r.x + r.z), 0.5f * (r.y + r.w));
+      p.mouse = p.drag_start;
+      p.mouse_button = d.button;
+    } else if (p.phase == 1) {
+      p.mouse_down = true;
+    } else if (p.phase <= 1 + kSteps) {
+      const float t = static_cast<float>(p.phase - 1) / kSteps;
+      p.mouse = ImVec2(p.drag_start.x + t * d.dx, p.drag_start.y + t * d.dy);
+    } else if (p.phase == 2 + kSteps) {
+      p.mouse_down = false;
+    }
+    io.MousePos = p.mouse;
+    io.MouseDown[p.mouse_button] = p.mouse_down;
+    if (++p.phase > 3 + kSteps) {
+      p.mouse_button = 0;
+      finish();
+    }
+  } else if (s.op == "scroll") {
+    std::istringstream in(s.arg);
+    std::string name;
+    float notches = 0.0f;
+    if (!(in >> name >> notches)) return fail("scroll needs NAME N");
+    if (p.phase == 0) {
+      auto it = ui.widgets.find(name);
+      if (it == ui.widgets.end()) return fail("no widget named '" + name + "' on screen");
+      const ImVec4 r = it->second;
+      p.mouse = ImVec2(0.5f * (r.x + r.z), 0.5f * (r.y + r.w));
+    } else if (p.phase == 1) {
+      io.MouseWheel += notches;
+    }
+    io.MousePos = p.mouse;
+    if (++p.phase > 2) finish();
   } else if (s.op == "type") {
     for (unsigned char c : s.arg) io.AddInputCharacter(c);
     finish();

@@ -757,6 +757,10 @@ Image SceneRenderer::render_image(const SceneState& state) {
   return img;
 }
 
+void SceneRenderer::set_antialiasing(Antialiasing antialiasing) {
+  state_->options.antialiasing = antialiasing;
+}
+
 void SceneRenderer::set_user_mesh(const Mesh& mesh) {
   state_->user_cpu = mesh;
   state_->user_box = State::bounds(mesh);

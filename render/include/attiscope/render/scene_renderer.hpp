@@ -72,6 +72,9 @@ class SceneRenderer {
   /// reads it back.
   Image render_image(const SceneState& state);
 
+  /// Changes the antialiasing of later draws (the window draws without it while a view moves).
+  void set_antialiasing(Antialiasing antialiasing);
+
   /// The mesh drawn for SceneState::model.user_mesh; replaces any earlier one.
   void set_user_mesh(const Mesh& mesh);
   /// The CPU mesh of a model choice (for pick_body).
