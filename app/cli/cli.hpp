@@ -69,12 +69,6 @@ std::string common_options_help();
 /// (or the only one is "-").
 std::string input_text(const CommonOptions& options, std::istream& in);
 
-/// Reads one pose in a house convention: 3 numbers are its printed Euler angles (unless
-/// --euler/--intrinsic/--extrinsic or --deg/--rad in `o` ask for another reading), 4 its
-/// quaternion, 9 its matrix. `reading` gets a description; defects go to `warnings`.
-Expected<Rotation> read_in_house(const std::string& text, const HouseConvention& c, const CommonOptions& o,
-                                 std::string* reading, std::vector<std::string>* warnings);
-
 int run_convert(const std::vector<std::string>& args, Streams io);
 int run_render(const std::vector<std::string>& args, Streams io);
 int run_find(const std::vector<std::string>& args, Streams io);

@@ -34,9 +34,10 @@ const char* kCompareHelp =
     "  --path N         also print N poses along the shortest path from A to B (SLERP)\n"
     "  --mean FILE      mean and spread of the poses in FILE ('#' starts a comment)\n"
     "\n"
-    "Each pose is read with --as (or guessed from its count of numbers: 3 Euler, 4 quaternion\n"
-    "w x y z, 9 matrix rows). Exit codes: 0 within tolerance (or none given), 1 beyond it,\n"
-    "2 bad input.\n"
+    "Each pose is read as convert reads it: with --as; else, under --convention, bare 3/4/9\n"
+    "numbers in the house's printed form; else the paste reader's top reading (a warning says\n"
+    "when the text is ambiguous; see attiscope read). Exit codes: 0 within tolerance (or none\n"
+    "given), 1 beyond it, 2 bad input.\n"
     "\n"
     "Examples:\n"
     "  attiscope compare --as euler \"30 5 2\" \"31 4.5 2.2\" --tolerance 1\n"
@@ -87,7 +88,7 @@ int run_mean(const CommonOptions& o, const std::optional<double>& tolerance_deg,
     const std::size_t hash = line.find('#');
     if (hash != std::string::npos) line = line.substr(0, hash);
     if (line.find_first_not_of(" \t\r") == std::string::npos) continue;
-    auto pose = read_pose_text(line, o);
+    auto pose = read_pose_text(line, pose_options(o));
     if (!pose) {
       Error e = pose.error();
       e.line = line_no;
@@ -174,7 +175,7 @@ int run_compare(const std::vector<std::string>& args, Streams io) {
   std::vector<std::string> warnings;
   std::array<Rotation, 2> poses;
   for (std::size_t i = 0; i < 2; ++i) {
-    auto pose = read_pose_text(o.positional[i], o);
+    auto pose = read_pose_text(o.positional[i], pose_options(o));
     const char* which = i == 0 ? "A (reference)" : "B (current)";
     if (!pose) return bad(io, std::string(which) + ": " + pose.error().describe());
     poses[i] = pose.value().rotation;

@@ -8,12 +8,24 @@
 #include "attiscope/core/convention_file.hpp"
 #include "attiscope/core/finder.hpp"
 #include "attiscope/core/house_report.hpp"
+#include "attiscope/core/pose_text.hpp"
 #include "attiscope/core/steps.hpp"
 #include "cli/cli.hpp"
+#include "cli/pose_input.hpp"
 
 namespace attiscope::cli {
 
 namespace {
+
+// A pose for --steps and --pose: read in the convention being shown (core's read_pose_text).
+Expected<Rotation> read_house_pose(const std::string& text, const HouseConvention& c,
+                                   const CommonOptions& o) {
+  PoseTextOptions p = pose_options(o);
+  p.house = c;
+  auto pose = read_pose_text(text, p);
+  if (!pose) return pose.error();
+  return pose.value().rotation;
+}
 
 const char* kConventionHelp =
     "usage: attiscope convention [FILE] [--steps TEXT] [--to FILE2 [--pose TEXT]] [--write OUT] [--json]\n"
@@ -95,9 +107,7 @@ int run_convention(const std::vector<std::string>& args, Streams io) {
   for (const std::string& s : positive_direction_sentences(c)) text += "              " + s + "\n";
 
   if (auto pose_text = o.last("--steps")) {
-    std::string reading;
-    std::vector<std::string> read_warnings;
-    auto pose = read_in_house(*pose_text, c, o, &reading, &read_warnings);
+    auto pose = read_house_pose(*pose_text, c, o);
     if (!pose) {
       io.err << "attiscope convention: --steps: " << pose.error().describe() << "\n";
       return kExitBadInput;
@@ -142,9 +152,7 @@ int run_convention(const std::vector<std::string>& args, Streams io) {
                          {"body_right", {{"w", qb.w()}, {"x", qb.x()}, {"y", qb.y()}, {"z", qb.z()}}},
                          {"text", fc.describe()}};
     if (auto pose_text = o.last("--pose")) {
-      std::string reading;
-      std::vector<std::string> read_warnings;
-      auto pose = read_in_house(*pose_text, c, o, &reading, &read_warnings);
+      auto pose = read_house_pose(*pose_text, c, o);
       if (!pose) {
         io.err << "attiscope convention: --pose: " << pose.error().describe() << "\n";
         return kExitBadInput;

@@ -4,7 +4,9 @@
 #include <iterator>
 
 #include "attiscope/core/intake.hpp"
+#include "attiscope/core/pose_text.hpp"
 #include "cli/cli.hpp"
+#include "cli/pose_input.hpp"
 
 namespace attiscope::cli {
 
@@ -51,9 +53,9 @@ int run_read(const std::vector<std::string>& args, Streams io) {
   } else {
     text.assign(std::istreambuf_iterator<char>(io.in), std::istreambuf_iterator<char>());
   }
-  IntakePreferences prefs;
-  prefs.euler = o.euler;
-  if (o.unit_given) prefs.unit = o.unit;
+  // The same preferences every command reads with: --convention fills them, --euler and
+  // --deg/--rad given explicitly override the house's.
+  const IntakePreferences prefs = pose_intake_preferences(pose_options(o));
   auto result = read_pasted(text, prefs);
   if (!result) {
     io.err << "attiscope read: " << result.error().describe() << "\n";

@@ -5,7 +5,9 @@
 #include <sstream>
 
 #include "attiscope/core/euler.hpp"
+#include "attiscope/core/pose_text.hpp"
 #include "cli/cli.hpp"
+#include "cli/pose_input.hpp"
 
 #ifdef ATTISCOPE_HAVE_RENDER
 #include "attiscope/render/headless.hpp"
@@ -66,39 +68,16 @@ std::string render_help() {
 #ifdef ATTISCOPE_HAVE_RENDER
 namespace {
 
-std::optional<ReadingKind> reading_by_count(std::size_t n) {
-  switch (n) {
-    case 3: return ReadingKind::Euler;
-    case 4: return ReadingKind::QuatWxyz;
-    case 9: return ReadingKind::MatrixRows;
-    default: return std::nullopt;
-  }
-}
-
-/// Reads one pose from a text with the shared options (the same reading as `convert`).
+/// Reads one pose from a text with the shared options (core's read_pose_text, as every
+/// command reads); errors say which text (`what`) they are about.
 Expected<ExplicitReading> read_pose(const std::string& text, const CommonOptions& o, const char* what) {
-  std::optional<ReadingKind> kind = o.as;
-  std::vector<std::string> warnings;
-  if (!kind) {
-    auto numbers = scan_numbers(text);
-    if (!numbers) return numbers.error();
-    kind = reading_by_count(numbers.value().size());
-    if (!kind) {
-      return Error(
-          std::string(what) + ": got " + std::to_string(numbers.value().size()) +
-          " numbers; a pose is 3 (Euler angles), 4 (quaternion) or 9 (matrix) numbers, or say which with "
-          "--as");
-    }
-    warnings.push_back(std::string("no --as given: ") + what + " read as " + reading_kind_name(*kind));
+  auto pose = read_pose_text(text, pose_options(o));
+  if (!pose) {
+    Error e = pose.error();
+    e.message = std::string(what) + ": " + e.message;
+    return e;
   }
-  ExplicitReadingOptions ro;
-  ro.euler = o.euler;
-  ro.unit = o.unit;
-  ro.rotvec_unit = o.unit_given ? o.unit : AngleUnit::Radians;
-  auto r = read_explicit(text, *kind, ro);
-  if (!r) return r.error();
-  for (const std::string& w : warnings) r.value().warnings.insert(r.value().warnings.begin(), w);
-  return r;
+  return ExplicitReading{pose.value().rotation, pose.value().warnings};
 }
 
 bool parse_size(const std::string& s, int* w, int* h) {

@@ -16,11 +16,10 @@ PoseTextOptions pose_options(const CommonOptions& o) {
   p.reading.euler = o.euler;
   p.reading.unit = o.unit;
   p.reading.rotvec_unit = o.unit_given ? o.unit : AngleUnit::Radians;
+  p.euler_given = o.euler_given;
+  p.unit_given = o.unit_given;
+  p.house = o.convention;
   return p;
-}
-
-Expected<PoseText> read_pose_text(std::string_view text, const CommonOptions& o) {
-  return attiscope::read_pose_text(text, pose_options(o));
 }
 
 Expected<std::string> read_input_file(const std::string& path, std::istream& in) {

@@ -16,11 +16,9 @@
 
 namespace attiscope::cli {
 
-/// The pose-reading options that the shared options (--as, --euler, --deg/--rad) give.
+/// The pose-reading options that the shared options (--as, --euler, --deg/--rad,
+/// --convention) give, for core's read_pose_text.
 PoseTextOptions pose_options(const CommonOptions& o);
-
-/// core's read_pose_text with the shared options.
-Expected<PoseText> read_pose_text(std::string_view text, const CommonOptions& o);
 
 /// Reads a whole file, or standard input for "-". Error when it cannot be read.
 Expected<std::string> read_input_file(const std::string& path, std::istream& in);

@@ -236,7 +236,7 @@ namespace attiscope {
 namespace {
 
 TEST(MountTextTest, WordsNumbersAndDirection) {
-  const PoseTextOptions guess;  // no reading given: guessed by count
+  const PoseTextOptions guess;  // no reading given: the paste reader's top reading
   const auto words = read_mount_text("x aft, z down", guess, kFrd);
   ASSERT_TRUE(words.ok());
   EXPECT_TRUE(words->words);
