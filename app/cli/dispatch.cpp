@@ -23,6 +23,7 @@ const Subcommand kSubcommands[] = {
     {"compare", "relative rotation, angle, per-axis error; mean and spread", run_compare},
     {"mount", "mount check: nominal vs measured, or a solve from vector pairs", run_mount},
     {"read", "print the ranked readings of pasted text", run_read},
+    {"card", "a house convention's card as a PNG (and Markdown)", run_card},
 };
 
 void print_usage(std::ostream& os) {

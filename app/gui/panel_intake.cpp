@@ -28,8 +28,8 @@ void list_readings(Ui& ui, const std::string& text) {
   }
   ImGui::Text("%zu numbers. Read as:", numbers.value().size());
   ExplicitReadingOptions options;
-  options.euler = ui.doc.convention().euler;
-  options.unit = ui.doc.convention().unit;
+  options.euler = ui.doc.convention().house.euler.convention;
+  options.unit = ui.doc.convention().house.euler.unit;
   const ReadingKind kinds[] = {ReadingKind::QuatWxyz,   ReadingKind::QuatXyzw, ReadingKind::MatrixRows,
                                ReadingKind::MatrixCols, ReadingKind::Euler,    ReadingKind::AxisAngle,
                                ReadingKind::RotVec};
