@@ -256,8 +256,9 @@ void draw_house_panel(Ui& ui) {
     ImGui::TextDisabled("%s", dc.path.c_str());
   }
   ImGui::SetNextItemWidth(-12.0f * ImGui::GetFontSize());
-  const bool enter =
-      input_string("##file", &ui.house.path_input, kPathCapacity, ImGuiInputTextFlags_EnterReturnsTrue);
+  input_string("##file", &ui.house.path_input, kPathCapacity);
+  // Enter in the box loads the file (the box keeps its text as it is typed).
+  const bool enter = ImGui::IsItemDeactivated() && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter));
   record_widget(ui, "house.file");
   ImGui::SameLine();
   if (ImGui::Button("Load") || enter) open_convention(ui, ui.house.path_input);

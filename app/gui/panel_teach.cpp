@@ -63,7 +63,7 @@ void draw_teach_panel(Ui& ui) {
               t.other_kind ? "the equivalent order of the other kind" : "the house's own order");
   for (int i = 0; i < 3; ++i) {
     const EulerStep& s = v.steps.steps[static_cast<std::size_t>(i)];
-    const bool now = i == std::min(v.current, 2);
+    const bool now = i == v.focus;
     if (ui.heading != nullptr && now) ImGui::PushFont(ui.heading);
     if (now) {
       ImGui::TextWrapped("%s", s.sentence.c_str());

@@ -35,9 +35,16 @@ TeachingView teaching_view(const DocumentState& s, const TeachState& t) {
   const double p = std::clamp(t.position, 0.0, 3.0);
   v.current = std::min(3, static_cast<int>(std::floor(p)));
   v.fraction = v.current < 3 ? p - v.current : 0.0;
+  if (v.fraction > 0.0) {
+    v.focus = v.current;
+    v.focus_fraction = v.fraction;
+  } else if (v.current > 0) {
+    v.focus = v.current - 1;
+    v.focus_fraction = 1.0;
+  }
+  v.sentence = v.steps.steps[static_cast<std::size_t>(v.focus)].sentence;
   if (v.current >= 3) {
     v.shown_world_R_body = v.steps.steps[2].after;
-    v.sentence = v.steps.steps[2].sentence;
   } else {
     const EulerStep& step = v.steps.steps[static_cast<std::size_t>(v.current)];
     // Part of the turn about its axis in world coordinates: for an intrinsic turn that is
@@ -45,7 +52,6 @@ TeachingView teaching_view(const DocumentState& s, const TeachState& t) {
     const Eigen::Quaterniond part(
         Eigen::AngleAxisd(v.fraction * step.angle_rad, step.axis_world.normalized()));
     v.shown_world_R_body = Rotation(part * step.before.quaternion());
-    v.sentence = step.sentence;
   }
   return v;
 }
@@ -57,17 +63,15 @@ void apply_teaching_overlay(const Ui& ui, render::SceneState* scene) {
   scene->world_R_body = v.shown_world_R_body;
   scene->faded_triads.clear();
   scene->faded_triads.push_back({v.steps.steps[0].before, kFadedAlpha});
-  const int done = std::min(v.current, 3);
-  for (int i = 0; i < done && i < 2; ++i) {
+  for (int i = 0; i < v.focus; ++i) {
     scene->faded_triads.push_back({v.steps.steps[static_cast<std::size_t>(i)].after, kFadedAlpha});
   }
-  const int playing = std::min(v.current, 2);
-  const EulerStep& step = v.steps.steps[static_cast<std::size_t>(playing)];
+  const EulerStep& step = v.steps.steps[static_cast<std::size_t>(v.focus)];
   render::TurnHighlight turn;
   turn.axis_world = step.axis_world;
   turn.start_world_R_body = step.before;
   turn.angle_rad = step.angle_rad;
-  turn.shown_rad = v.current >= 3 ? step.angle_rad : v.fraction * step.angle_rad;
+  turn.shown_rad = v.focus_fraction * step.angle_rad;
   const double shown = std::round(turn.shown_rad * kRadToDeg * 10.0) / 10.0;
   char text[96];
   std::snprintf(text, sizeof text, "%s %+.1f deg", step.angle_name.c_str(), shown);

@@ -34,7 +34,11 @@ struct TeachingView {
   int current = 0;              ///< the turn playing (0..2); 3 when all are done
   double fraction = 0.0;        ///< how much of it is done, 0..1
   Rotation shown_world_R_body;  ///< the frame at this position
-  std::string sentence;         ///< the current turn's sentence (the last one when done)
+  /// The turn the overlays and the sentence are about: the one playing, or (between turns)
+  /// the one just finished; the first turn, not yet begun, at position 0.
+  int focus = 0;
+  double focus_fraction = 0.0;  ///< how much of the focus turn is drawn, 0..1
+  std::string sentence;         ///< the focus turn's sentence
 };
 
 /// The teaching view of a document state at a play position.

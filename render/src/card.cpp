@@ -192,8 +192,8 @@ Expected<Image> render_convention_card(const HouseConvention& c) {
   draw_text(&card, font, ascii(c.name), x, y, kTitlePx);
   y += kTitlePx * 0.6f;
   const std::vector<std::string> lines = card_text_lines(c);
-  const float line_h =
-      std::min(kTextPx * 1.3f, (kCardHeight - y - kMargin) / std::max(1.0f, static_cast<float>(lines.size())));
+  const float line_h = std::min(
+      kTextPx * 1.3f, (kCardHeight - y - kMargin) / std::max(1.0f, static_cast<float>(lines.size())));
   const float px = std::min(kTextPx, line_h / 1.3f);
   for (std::size_t i = 1; i < lines.size(); ++i) {  // line 0 is the title
     y += line_h;
