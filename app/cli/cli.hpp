@@ -77,6 +77,7 @@ int run_compare(const std::vector<std::string>& args, Streams io);
 int run_mount(const std::vector<std::string>& args, Streams io);
 int run_read(const std::vector<std::string>& args, Streams io);
 int run_track(const std::vector<std::string>& args, Streams io);
+int run_card(const std::vector<std::string>& args, Streams io);
 
 /// The window's entry point (app/gui/gui.hpp), when the executable is built with it.
 using WindowEntry = int (*)(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);

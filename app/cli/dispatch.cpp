@@ -24,6 +24,7 @@ const Subcommand kSubcommands[] = {
     {"mount", "mount check: nominal vs measured, or a solve from vector pairs", run_mount},
     {"read", "print the ranked readings of pasted text", run_read},
     {"track", "summary and diagnosis of a pose log; clean copy as CSV", run_track},
+    {"card", "a house convention's card as a PNG (and Markdown)", run_card},
 };
 
 void print_usage(std::ostream& os) {

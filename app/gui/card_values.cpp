@@ -1,6 +1,8 @@
 // card_values.cpp: each card's numbers, their meaning and their clipboard forms, via core.
 #include "gui/card_values.hpp"
 
+#include "attiscope/core/convention.hpp"
+
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -51,7 +53,7 @@ std::vector<double> vec3(const Eigen::Vector3d& v) {
 }
 
 EulerConvention euler_of(Card c, const DocumentState& s) {
-  return c == Card::EulerHouse ? s.convention.euler : s.second_euler;
+  return c == Card::EulerHouse ? s.convention.house.euler.convention : s.second_euler;
 }
 
 std::vector<double> su2_numbers(const Rotation& r) {
@@ -99,13 +101,13 @@ EditCheck check_matrix_edit(const std::vector<double>& n, const DocumentState& s
     return c;
   }
   if (mc.orthonormality_defect <= kMatrixDefectSilent && mc.determinant > 0.0) {
-    return from_expected(from_matrix(m, s.convention.matrix.direction));
+    return from_expected(from_matrix(m, s.convention.house.matrix.direction));
   }
   char buf[200];
   std::snprintf(buf, sizeof buf, "not a rotation: orthonormality defect |M^T M - I| = %.3g, det = %.6g%s",
                 mc.orthonormality_defect, mc.determinant, mc.determinant < 0.0 ? " (a reflection)" : "");
   c.problem = buf;
-  auto nearest = from_matrix(nearest_rotation(m), s.convention.matrix.direction);
+  auto nearest = from_matrix(nearest_rotation(m), s.convention.house.matrix.direction);
   if (nearest) c.nearest = nearest.value();
   return c;
 }
@@ -144,27 +146,28 @@ const char* unit_name(AngleUnit unit) {
 CardView card_view(Card c, const DocumentState& s) {
   const Rotation& r = s.world_R_body;
   const DisplayConvention& dc = s.convention;
-  const int p = dc.precision;
-  const double k = angle_scale(dc.unit);
-  const char* u = unit_name(dc.unit);
+  const HouseConvention& hc = dc.house;
+  const int p = hc.precision;
+  const double k = angle_scale(dc.house.euler.unit);
+  const char* u = unit_name(dc.house.euler.unit);
   CardView v;
   switch (c) {
     case Card::Quaternion: {
-      v.title = "Quaternion (" + dc.quaternion.describe() + ")";
-      for (const char* l : quat_labels(dc.quaternion.layout)) v.labels.push_back(l);
-      v.numbers = vec(to_quaternion_numbers(r, dc.quaternion));
-      const QuatConvention other = other_layout(dc.quaternion);
+      v.title = "Quaternion (" + dc.house.quaternion.describe() + ")";
+      for (const char* l : quat_labels(dc.house.quaternion.layout)) v.labels.push_back(l);
+      v.numbers = vec(to_quaternion_numbers(r, dc.house.quaternion));
+      const QuatConvention other = other_layout(dc.house.quaternion);
       v.info.push_back(other.describe() + ":  " + join(vec(to_quaternion_numbers(r, other)), p));
       QuatConvention jpl{QuatLayout::ScalarLast, QuatAlgebra::Jpl, Direction::WorldToBody};
-      if (dc.quaternion == jpl) jpl = QuatConvention{};  // the house form is JPL: show Hamilton
+      if (dc.house.quaternion == jpl) jpl = QuatConvention{};  // the house form is JPL: show Hamilton
       v.info.push_back(jpl.describe() + ":  " + join(vec(to_quaternion_numbers(r, jpl)), p));
       break;
     }
     case Card::Matrix: {
-      const MatrixConvention rows{dc.matrix.direction, MatrixStorage::Rows};
+      const MatrixConvention rows{dc.house.matrix.direction, MatrixStorage::Rows};
       v.title = std::string("Rotation matrix (") +
-                (dc.matrix.direction == Direction::BodyToWorld ? "world_R_body: v_world = R v_body"
-                                                               : "body_R_world: v_body = C v_world") +
+                (dc.house.matrix.direction == Direction::BodyToWorld ? "world_R_body: v_world = R v_body"
+                                                                     : "body_R_world: v_body = C v_world") +
                 ")";
       v.columns = 3;
       for (int i = 0; i < 9; ++i) v.labels.push_back("m" + std::to_string(i / 3) + std::to_string(i % 3));
@@ -174,20 +177,35 @@ CardView card_view(Card c, const DocumentState& s) {
       const MatrixCheck mc = check_matrix(matrix_from_numbers(a, MatrixStorage::Rows));
       v.info.push_back("orthonormality defect " + format_number(mc.orthonormality_defect, 3) +
                        "   determinant " + format_number(mc.determinant, p));
-      v.info.push_back("storage: " + dc.matrix.describe());
+      v.info.push_back("storage: " + dc.house.matrix.describe());
       break;
     }
-    case Card::EulerHouse:
+    case Card::EulerHouse: {
+      // The house's numbers: print order, unit and ranges from the convention (core).
+      const HouseEulerView hv = house_euler(r, hc);
+      const EulerConvention& ec = hc.euler.convention;
+      v.title = "Euler angles, house: " + ec.name();
+      v.columns = 3;
+      for (int i = 0; i < 3; ++i) {
+        const std::size_t app = static_cast<std::size_t>(hc.euler.print_order[static_cast<std::size_t>(i)]);
+        v.labels.push_back(hv.names[static_cast<std::size_t>(i)] + " (" +
+                           std::string(1, axis_letter(ec.axes[app])) + ")");
+      }
+      v.numbers = vec(hv.values);
+      v.info.push_back("lock margin " + format_number(hv.angles.lock_margin_rad * k, p) + " " + u +
+                       (hv.angles.at_lock ? "   AT LOCK: third angle set to 0" : ""));
+      v.info.push_back("Euler-rate condition number " +
+                       format_number(condition_number(euler_rate_matrix(ec, hv.angles.angles_rad)), 4));
+      break;
+    }
     case Card::EulerSecond: {
       const EulerConvention ec = euler_of(c, s);
       const EulerAngles e = to_euler(r, ec);
-      v.title = (c == Card::EulerHouse ? "Euler angles, house: " : "Euler angles, second: ") + ec.name();
+      v.title = "Euler angles, second: " + ec.name();
       v.columns = 3;
       for (int i = 0; i < 3; ++i) {
         const std::string axis(1, axis_letter(ec.axes[static_cast<std::size_t>(i)]));
-        v.labels.push_back(c == Card::EulerHouse
-                               ? dc.angle_names[static_cast<std::size_t>(i)] + " (" + axis + ")"
-                               : std::string(1, static_cast<char>('a' + i)) + " (" + axis + ")");
+        v.labels.push_back(std::string(1, static_cast<char>('a' + i)) + " (" + axis + ")");
       }
       v.numbers = vec3(e.angles_rad * k);
       v.info.push_back("lock margin " + format_number(e.lock_margin_rad * k, p) + " " + u +
@@ -268,7 +286,7 @@ CardView card_view(Card c, const DocumentState& s) {
 
 EditCheck check_card_edit(Card c, const std::vector<double>& n, const DocumentState& s) {
   const DisplayConvention& dc = s.convention;
-  const double k = angle_scale(dc.unit);
+  const double k = angle_scale(dc.house.euler.unit);
   if (!all_finite(n)) {
     EditCheck e;
     e.problem = "a number is not finite";
@@ -277,13 +295,14 @@ EditCheck check_card_edit(Card c, const std::vector<double>& n, const DocumentSt
   switch (c) {
     case Card::Quaternion: {
       QuatCheck qc;
-      EditCheck e = from_expected(from_quaternion_numbers({n[0], n[1], n[2], n[3]}, dc.quaternion, &qc));
+      EditCheck e =
+          from_expected(from_quaternion_numbers({n[0], n[1], n[2], n[3]}, dc.house.quaternion, &qc));
       if (e.rotation && std::abs(qc.norm - 1.0) > kUnitNormTolerance)
         e.note = "normalised from |q| = " + format_number(qc.norm, 6);
       return e;
     }
     case Card::Matrix: return check_matrix_edit(n, s);
-    case Card::EulerHouse:
+    case Card::EulerHouse: return from_expected(from_house_euler({n[0], n[1], n[2]}, dc.house));
     case Card::EulerSecond:
       return from_expected(from_euler(euler_of(c, s), Eigen::Vector3d(n[0], n[1], n[2]) / k));
     case Card::AxisAngle: return from_expected(from_axis_angle(Eigen::Vector3d(n[0], n[1], n[2]), n[3] / k));
@@ -322,7 +341,7 @@ std::string card_plain_text(Card c, const DocumentState& s) {
   std::ostringstream out;
   out << v.title << "\n";
   for (std::size_t i = 0; i < v.numbers.size(); ++i) {
-    out << format_number(v.numbers[i], s.convention.precision);
+    out << format_number(v.numbers[i], s.convention.house.precision);
     out << ((i + 1) % static_cast<std::size_t>(v.columns) == 0 || i + 1 == v.numbers.size() ? "\n" : "  ");
   }
   for (const std::string& line : v.info) out << line << "\n";
@@ -331,7 +350,7 @@ std::string card_plain_text(Card c, const DocumentState& s) {
 
 nlohmann::json card_json(Card c, const DocumentState& s) {
   ReportOptions o;
-  o.euler = s.convention.euler;
+  o.euler = s.convention.house.euler.convention;
   o.reading = "window";
   const nlohmann::json all = convert_json(s.world_R_body, o);
   auto pick = [&all](std::initializer_list<const char*> keys) {
@@ -369,7 +388,7 @@ std::string card_code_literal(Card c, const DocumentState& s) {
     case Card::Matrix: {
       std::string out =
           "// " + v.title + ", row-major\nconst double " +
-          (s.convention.matrix.direction == Direction::BodyToWorld ? "world_R_body" : "body_R_world") +
+          (s.convention.house.matrix.direction == Direction::BodyToWorld ? "world_R_body" : "body_R_world") +
           "[3][3] = {\n";
       for (int i = 0; i < 3; ++i) {
         const std::size_t b = static_cast<std::size_t>(3 * i);

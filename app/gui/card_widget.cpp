@@ -102,7 +102,7 @@ void draw_card(Ui& ui, Card card) {
                              static_cast<float>(cols) -
                          label_w);
   char format[16];
-  std::snprintf(format, sizeof format, "%%.%dg", s.convention.precision);
+  std::snprintf(format, sizeof format, "%%.%dg", s.convention.house.precision);
   bool any_active = false;
   if (ui.mono) ImGui::PushFont(ui.mono);
   if (!view.editable) ImGui::BeginDisabled();

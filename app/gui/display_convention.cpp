@@ -1,50 +1,73 @@
-// display_convention.cpp: the built-in house conventions of the selector.
+// display_convention.cpp: finding the shipped demo conventions and loading a file.
 #include "gui/display_convention.hpp"
+
+#include <algorithm>
+#include <cstdlib>
+#include <filesystem>
+#include <system_error>
+
+#include "attiscope/core/convention_file.hpp"
 
 namespace attiscope::gui {
 
+namespace fs = std::filesystem;
+
 bool DisplayConvention::operator==(const DisplayConvention& o) const {
-  return name == o.name && world_frame == o.world_frame && body_frame == o.body_frame && euler == o.euler &&
-         angle_names == o.angle_names && unit == o.unit && quaternion == o.quaternion &&
-         matrix.direction == o.matrix.direction && matrix.storage == o.matrix.storage &&
-         precision == o.precision;
+  // The file text names every field, so equal text is an equal convention.
+  return path == o.path && convention_to_toml(house) == convention_to_toml(o.house);
 }
 
-const std::vector<DisplayConvention>& builtin_conventions() {
-  // Built once on first use; immutable afterwards (a table, not state).
-  static const std::vector<DisplayConvention> kBuiltins = [] {
-    std::vector<DisplayConvention> v;
-    {
-      DisplayConvention c;  // ENU / FLU, Hamilton w x y z: common practice in robotics math
-      c.name = "Robot arm team: ENU/FLU, Hamilton wxyz, ZYX yaw-pitch-roll (deg)";
-      v.push_back(c);
+namespace {
+
+bool has_conventions(const fs::path& dir) {
+  std::error_code ec;
+  return fs::is_directory(dir / "conventions", ec);
+}
+
+}  // namespace
+
+std::string assets_dir() {
+  std::error_code ec;
+  if (const char* env = std::getenv("ATTISCOPE_ASSETS"); env != nullptr && *env != '\0') {
+    if (fs::is_directory(env, ec)) return fs::path(env).lexically_normal().string();
+  }
+  const fs::path exe = fs::read_symlink("/proc/self/exe", ec);
+  if (!ec) {
+    const fs::path bin = exe.parent_path();
+    for (const char* rel : {"../share/attiscope/assets", "../assets", "../../assets", "../../../assets"}) {
+      const fs::path candidate = (bin / rel).lexically_normal();
+      if (has_conventions(candidate)) return candidate.string();
     }
-    {
-      DisplayConvention c;  // NED / FRD, 3-2-1 heading-elevation-bank: common practice in aviation
-      c.name = "Survey aircraft team: NED/FRD, 3-2-1 heading-elevation-bank, DCM world-to-body";
-      c.world_frame = "NED";
-      c.body_frame = "FRD";
-      c.angle_names = {"heading", "elevation", "bank"};
-      c.matrix.direction = Direction::WorldToBody;
-      c.precision = 5;
-      v.push_back(c);
-    }
-    {
-      DisplayConvention c;  // scalar-last JPL quaternions: common practice in spacecraft GNC
-      c.name = "Spacecraft team: JPL xyzw world-to-body, 3-1-3 (rad), column-major";
-      c.world_frame = "inertial";
-      c.body_frame = "spacecraft";
-      c.euler.axes = {Axis::Z, Axis::X, Axis::Z};
-      c.angle_names = {"phi", "theta", "psi"};
-      c.unit = AngleUnit::Radians;
-      c.quaternion = {QuatLayout::ScalarLast, QuatAlgebra::Jpl, Direction::WorldToBody};
-      c.matrix = {Direction::WorldToBody, MatrixStorage::Columns};
-      c.precision = 7;
-      v.push_back(c);
-    }
-    return v;
-  }();
-  return kBuiltins;
+  }
+#ifdef ATTISCOPE_SOURCE_ASSETS_DIR
+  if (has_conventions(ATTISCOPE_SOURCE_ASSETS_DIR)) return ATTISCOPE_SOURCE_ASSETS_DIR;
+#endif
+  return "";
+}
+
+std::vector<std::string> demo_convention_files() {
+  std::vector<std::string> out;
+  const std::string dir = assets_dir();
+  if (dir.empty()) return out;
+  std::error_code ec;
+  for (const auto& entry : fs::directory_iterator(fs::path(dir) / "conventions", ec)) {
+    if (entry.path().extension() == ".toml") out.push_back(entry.path().string());
+  }
+  std::sort(out.begin(), out.end());
+  return out;
+}
+
+Expected<DisplayConvention> load_display_convention(const std::string& path,
+                                                    std::vector<std::string>* warnings) {
+  auto loaded = load_convention(path);
+  if (!loaded) return loaded.error();
+  if (warnings != nullptr) {
+    for (const Error& w : loaded.value().warnings) warnings->push_back(w.describe());
+  }
+  DisplayConvention d;
+  d.house = loaded.value().convention;
+  d.path = path;
+  return d;
 }
 
 }  // namespace attiscope::gui

@@ -1,39 +1,37 @@
-// display_convention.hpp: how the window writes a rotation for a team (the "house
-// convention" as far as the readouts need it): Euler convention and angle names, unit,
-// quaternion layout/algebra/direction, matrix direction/storage, precision. Every card
-// applies it. The house convention file loader fills one of these; until then the window
-// offers the built-in choices below. Views only: the document always holds the canonical
-// Rotation (core/rotation.hpp).
+// display_convention.hpp: how the window writes a rotation for a team. The one model is
+// core's HouseConvention (core/convention.hpp), read from and written to a convention file
+// (core/convention_file.hpp); the window adds only where it came from. Every card applies
+// it. Views only: the document always holds the canonical Rotation (core/rotation.hpp).
 #pragma once
 
-#include <array>
 #include <string>
 #include <vector>
 
-#include "attiscope/core/euler.hpp"
-#include "attiscope/core/matrix.hpp"
-#include "attiscope/core/quaternion.hpp"
-#include "attiscope/core/text.hpp"
+#include "attiscope/core/convention.hpp"
+#include "attiscope/core/expected.hpp"
 
 namespace attiscope::gui {
 
 struct DisplayConvention {
-  std::string name = "Default (Hamilton w x y z, ZYX yaw-pitch-roll)";
-  std::string world_frame = "ENU";
-  std::string body_frame = "FLU";
-  EulerConvention euler;                                           ///< intrinsic ZYX by default
-  std::array<std::string, 3> angle_names{"yaw", "pitch", "roll"};  ///< application order
-  AngleUnit unit = AngleUnit::Degrees;
-  QuatConvention quaternion;  ///< house layout, algebra and direction
-  MatrixConvention matrix;    ///< house direction and storage
-  int precision = 6;          ///< significant digits shown
+  HouseConvention house;  ///< the one source of truth for every card
+  std::string path;       ///< the file it was loaded from or saved to; empty: the default
 
   bool operator==(const DisplayConvention& o) const;
   bool operator!=(const DisplayConvention& o) const { return !(*this == o); }
 };
 
-/// The built-in choices of the house convention selector (invented examples, each a
-/// common combination in its trade).
-const std::vector<DisplayConvention>& builtin_conventions();
+/// The folder of the shipped assets: $ATTISCOPE_ASSETS when it names a folder, else the
+/// first of (beside the executable) ../share/attiscope/assets, ../assets, ../../assets,
+/// ../../../assets that holds conventions/, else the source tree's assets/ (build time).
+/// Empty when none is found.
+std::string assets_dir();
+
+/// The demo convention files in assets/conventions/, sorted by name.
+std::vector<std::string> demo_convention_files();
+
+/// Loads a convention file into a DisplayConvention; the error carries line and column.
+/// `warnings` receives the unknown-key warnings, one line each.
+Expected<DisplayConvention> load_display_convention(const std::string& path,
+                                                    std::vector<std::string>* warnings = nullptr);
 
 }  // namespace attiscope::gui

@@ -55,23 +55,23 @@ void Document::set_second_euler(const EulerConvention& c) {
 
 void Document::set_convention(const DisplayConvention& c) {
   if (c == state_.convention) return;
-  push_undo("house convention " + c.name);
+  push_undo("house convention " + c.house.name);
   state_.convention = c;
   edits_.clear();  // typed numbers were in the old convention's layout
 }
 
 void Document::set_unit(AngleUnit unit) {
-  if (unit == state_.convention.unit) return;
+  if (unit == state_.convention.house.euler.unit) return;
   push_undo(unit == AngleUnit::Degrees ? "degrees" : "radians");
-  state_.convention.unit = unit;
+  state_.convention.house.euler.unit = unit;
   edits_.clear();
 }
 
 void Document::set_precision(int significant_digits) {
   significant_digits = std::clamp(significant_digits, 1, 17);
-  if (significant_digits == state_.convention.precision) return;
+  if (significant_digits == state_.convention.house.precision) return;
   push_undo("precision " + std::to_string(significant_digits));
-  state_.convention.precision = significant_digits;
+  state_.convention.house.precision = significant_digits;
 }
 
 void Document::nudge(Axis axis, double angle_rad, bool about_body_axis) {
@@ -176,9 +176,10 @@ nlohmann::json Document::to_json() const {
   j["quaternion"] = quat_json(state_.world_R_body);
   j["reference_quaternion"] = quat_json(state_.world_R_reference);
   j["second_euler"] = state_.second_euler.name();
-  j["convention"] = state_.convention.name;
-  j["unit"] = state_.convention.unit == AngleUnit::Degrees ? "deg" : "rad";
-  j["precision"] = state_.convention.precision;
+  j["convention"] = state_.convention.house.name;
+  j["convention_path"] = state_.convention.path;
+  j["unit"] = state_.convention.house.euler.unit == AngleUnit::Degrees ? "deg" : "rad";
+  j["precision"] = state_.convention.house.precision;
   j["undo_depth"] = undo_.size();
   j["redo_depth"] = redo_.size();
   j["history"] = history();

@@ -40,7 +40,7 @@ ImVec4 to_imgui(const Eigen::Vector3f& c, float a = 1.0f) {
 
 void convention_combo(Ui& ui, ViewState& v) {
   const EulerConvention current = rings_convention(ui);
-  const std::string house = "house: " + ui.doc.convention().euler.name();
+  const std::string house = "house: " + ui.doc.convention().house.euler.convention.name();
   const std::string preview = v.rings_convention ? current.name() : house;
   ImGui::SetNextItemWidth(std::min(ImGui::GetContentRegionAvail().x, 13.0f * ImGui::GetFontSize()));
   if (ImGui::BeginCombo("##rings_convention", preview.c_str())) {

@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "attiscope/core/intake.hpp"
+#include "attiscope/core/pose_text.hpp"
 #include "gui/ui.hpp"
 
 namespace attiscope::gui {
@@ -31,15 +32,10 @@ const ImVec4 kTrackBg(0.12f, 0.32f, 0.48f, 1.0f);
 /// What the text is read against, from the house convention. The one place that reads the
 /// window's convention for the intake.
 IntakePreferences intake_preferences(const DisplayConvention& house) {
-  IntakePreferences p;
-  p.euler = house.euler;
-  p.unit = house.unit;
-  p.quat_layout = house.quaternion.layout;
-  p.matrix_storage = house.matrix.storage;
-  // NED worlds point z down (common practice); ENU and the rest point it up.
-  p.world_up = house.world_frame == "NED" ? Eigen::Vector3d(-Eigen::Vector3d::UnitZ())
-                                          : Eigen::Vector3d(Eigen::Vector3d::UnitZ());
-  return p;
+  // The same preferences the command line's --convention gives the paste reader.
+  PoseTextOptions options;
+  options.house = house.house;
+  return pose_intake_preferences(options);
 }
 
 /// A fixed oblique view of the world axes: world x toward the viewer and down-left, y to

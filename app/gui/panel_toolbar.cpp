@@ -1,8 +1,12 @@
 // panel_toolbar.cpp: the strip above the panels: house convention, unit, precision,
 // undo/redo, reset, nudges, the spin toggle and the UI scale.
+#include <algorithm>
 #include <cmath>
+#include <filesystem>
 
+#include "attiscope/core/convention.hpp"
 #include "gui/card_values.hpp"
+#include "gui/display_convention.hpp"
 #include "gui/ui.hpp"
 
 namespace attiscope::gui {
@@ -11,27 +15,37 @@ namespace {
 
 constexpr double kRadPerDeg = 3.14159265358979323846 / 180.0;
 
+/// The house convention selector: the default, the demo files in assets/conventions/ and
+/// the recent files. Loading any other file by path is in the House convention panel.
 void convention_selector(Ui& ui) {
-  const auto& builtins = builtin_conventions();
   const DisplayConvention& current = ui.doc.convention();
   ImGui::SetNextItemWidth(17.0f * ImGui::GetFontSize());
-  if (ImGui::BeginCombo("House", current.name.c_str())) {
-    for (std::size_t i = 0; i < builtins.size(); ++i) {
-      const bool selected = builtins[i].name == current.name;
-      if (ImGui::Selectable(builtins[i].name.c_str(), selected)) {
-        ui.doc.set_convention(builtins[i]);
-        ui.settings.convention_index = static_cast<int>(i);
-        ui.settings_changed = true;
-      }
-      record_widget(ui, "convention." + std::to_string(i));
+  if (ImGui::BeginCombo("House", current.house.name.c_str())) {
+    int index = 0;
+    if (ImGui::Selectable("attiscope default (ENU/FLU, Hamilton w x y z, ZYX)", current.path.empty())) {
+      ui.doc.set_convention(DisplayConvention{});
+      ui.settings.convention_path.clear();
+      ui.settings_changed = true;
+    }
+    record_widget(ui, "convention." + std::to_string(index++));
+    std::vector<std::string> files = demo_convention_files();
+    for (const std::string& r : ui.settings.recent_conventions) {
+      if (std::find(files.begin(), files.end(), r) == files.end()) files.push_back(r);
+    }
+    for (const std::string& f : files) {
+      const std::string label = std::filesystem::path(f).filename().string() + "##" + f;
+      if (ImGui::Selectable(label.c_str(), f == current.path)) open_convention(ui, f);
+      if (ImGui::IsItemHovered()) ImGui::SetTooltip("%s", f.c_str());
+      record_widget(ui, "convention." + std::to_string(index++));
     }
     ImGui::EndCombo();
   }
   record_widget(ui, "convention");
   if (ImGui::IsItemHovered()) {
-    ImGui::SetTooltip("world %s, body %s\n%s\nmatrix %s", current.world_frame.c_str(),
-                      current.body_frame.c_str(), current.quaternion.describe().c_str(),
-                      current.matrix.describe().c_str());
+    ImGui::SetTooltip("world %s, body %s\n%s\nmatrix %s",
+                      frame_preset_name(current.house.world, FrameRole::World).c_str(),
+                      frame_preset_name(current.house.body, FrameRole::Body).c_str(),
+                      current.house.quaternion.describe().c_str(), current.house.matrix.describe().c_str());
   }
 }
 
@@ -69,14 +83,14 @@ void draw_toolbar(Ui& ui) {
   Document& doc = ui.doc;
   convention_selector(ui);
   ImGui::SameLine();
-  int unit = doc.convention().unit == AngleUnit::Degrees ? 0 : 1;
+  int unit = doc.convention().house.euler.unit == AngleUnit::Degrees ? 0 : 1;
   if (ImGui::RadioButton("deg", &unit, 0)) doc.set_unit(AngleUnit::Degrees);
   record_widget(ui, "unit.deg");
   ImGui::SameLine();
   if (ImGui::RadioButton("rad", &unit, 1)) doc.set_unit(AngleUnit::Radians);
   record_widget(ui, "unit.rad");
   ImGui::SameLine();
-  int digits = doc.convention().precision;
+  int digits = doc.convention().house.precision;
   ImGui::SetNextItemWidth(6.0f * ImGui::GetFontSize());
   if (ImGui::InputInt("digits", &digits, 1, 1)) doc.set_precision(digits);
   record_widget(ui, "precision");

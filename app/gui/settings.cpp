@@ -34,8 +34,16 @@ const std::vector<Key>& keys() {
        [](Settings& s, const nlohmann::json& j) { s.window_width = std::clamp(j.get<int>(), 320, 16384); }},
       {"window_height", [](const Settings& s) { return nlohmann::json(s.window_height); },
        [](Settings& s, const nlohmann::json& j) { s.window_height = std::clamp(j.get<int>(), 240, 16384); }},
-      {"convention_index", [](const Settings& s) { return nlohmann::json(s.convention_index); },
-       [](Settings& s, const nlohmann::json& j) { s.convention_index = std::max(0, j.get<int>()); }},
+      {"convention_path", [](const Settings& s) { return nlohmann::json(s.convention_path); },
+       [](Settings& s, const nlohmann::json& j) { s.convention_path = j.get<std::string>(); }},
+      {"recent_conventions", [](const Settings& s) { return nlohmann::json(s.recent_conventions); },
+       [](Settings& s, const nlohmann::json& j) {
+         s.recent_conventions.clear();
+         for (const auto& p : j) {
+           if (s.recent_conventions.size() < kMaxRecentConventions)
+             s.recent_conventions.push_back(p.get<std::string>());
+         }
+       }},
       {"nudge_step_deg", [](const Settings& s) { return nlohmann::json(s.nudge_step_deg); },
        [](Settings& s, const nlohmann::json& j) {
          s.nudge_step_deg = std::clamp(j.get<double>(), 0.001, 90.0);
@@ -55,6 +63,14 @@ std::string settings_text(const Settings& s) {
 }
 
 }  // namespace
+
+void remember_convention(Settings& s, const std::string& path) {
+  auto& r = s.recent_conventions;
+  r.erase(std::remove(r.begin(), r.end(), path), r.end());
+  r.insert(r.begin(), path);
+  if (r.size() > kMaxRecentConventions) r.resize(kMaxRecentConventions);
+  s.convention_path = path;
+}
 
 std::optional<std::string> config_dir() {
   const char* xdg = std::getenv("XDG_CONFIG_HOME");

@@ -6,6 +6,7 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace attiscope::gui {
 
@@ -14,11 +15,16 @@ struct Settings {
   bool use_content_scale = true;  ///< follow the monitor's content scale
   int window_width = 1280;        ///< last window size, in screen coordinates
   int window_height = 800;
-  int convention_index = 0;     ///< the built-in house convention chosen last
-  double nudge_step_deg = 5.0;  ///< keyboard nudge step
+  std::string convention_path;                  ///< the house convention file chosen last ("": default)
+  std::vector<std::string> recent_conventions;  ///< convention files opened or saved, newest first
+  double nudge_step_deg = 5.0;                  ///< keyboard nudge step
   bool show_scene = true;
   bool show_gimbal = true;
 };
+
+/// Puts `path` first in the recent convention files (no duplicates, at most kMaxRecent).
+void remember_convention(Settings& s, const std::string& path);
+inline constexpr std::size_t kMaxRecentConventions = 8;
 
 /// The config folder: $XDG_CONFIG_HOME/attiscope, else $HOME/.config/attiscope; nullopt
 /// when neither variable is set (then nothing is saved).

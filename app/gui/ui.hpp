@@ -5,13 +5,17 @@
 #pragma once
 
 #include <map>
+#include <optional>
 #include <string>
+#include <vector>
 
 #include <imgui.h>
 #include <nlohmann/json.hpp>
 
+#include "attiscope/core/finder.hpp"
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
+#include "gui/teaching.hpp"
 
 namespace attiscope::gui {
 
@@ -23,6 +27,27 @@ struct FramebufferRect {
   int width = 0;
   int height = 0;
   bool empty() const { return width <= 0 || height <= 0; }
+};
+
+/// The House convention panel's transient state (not undoable: the convention itself is).
+struct HousePanelState {
+  std::string path_input;             ///< the "file" box: load from / save as
+  std::string error;                  ///< the last load or save error, with line and column
+  std::vector<std::string> warnings;  ///< unknown keys of the last load
+  std::string saved_text;             ///< the file text at the last load or save (unsaved marker)
+  std::string card_png;               ///< the card export's PNG path
+  std::string message;                ///< the last save or export result
+};
+
+/// The Finder panel's boxes and last results.
+struct FinderPanelState {
+  std::string a, b;
+  bool dirty = false;
+  std::string error;
+  std::optional<FinderResult> result;
+  std::string gravity_path;
+  std::string gravity_error;
+  std::optional<GravityResult> gravity;
 };
 
 struct Ui {
@@ -45,6 +70,9 @@ struct Ui {
   std::map<std::string, ImVec4> widgets;
   /// What the Intake panel lists this frame (readings as shown, or the error), for dumps.
   nlohmann::json intake_listing;
+  HousePanelState house;
+  TeachState teach;
+  FinderPanelState finder;
 };
 
 /// Records the last ImGui item under a test name.
@@ -59,6 +87,17 @@ void draw_card(Ui& ui, Card card);
 void draw_intake(Ui& ui);
 void draw_scene_panel(Ui& ui);
 void draw_gimbal_panel(Ui& ui);
+/// The lower right region: Intake, House convention, Teach and Finder as tabs.
+void draw_lower_tabs(Ui& ui);
+void draw_house_panel(Ui& ui);
+void draw_teach_panel(Ui& ui);
+void draw_finder_panel(Ui& ui);
+
+/// Loads a convention file into the document (one undo step) and the recent files; on an
+/// error the document is unchanged and ui.house.error names the line and column.
+bool open_convention(Ui& ui, const std::string& path);
+/// Advances the teaching mode's play position by dt seconds.
+void advance_teaching(Ui& ui, double dt_s);
 
 /// Keyboard shortcuts of the whole window (undo, redo, nudges, Ctrl+V to the intake).
 void handle_shortcuts(Ui& ui);

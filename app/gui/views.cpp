@@ -5,6 +5,8 @@
 // that is not real.
 #include "gui/views.hpp"
 
+#include "gui/teaching.hpp"
+
 #ifdef ATTISCOPE_HAS_RENDER
 #include <imgui.h>
 
@@ -63,7 +65,7 @@ ViewState& view_state() {
 }
 
 EulerConvention rings_convention(const Ui& ui) {
-  return g_views.rings_convention.value_or(ui.doc.convention().euler);
+  return g_views.rings_convention.value_or(ui.doc.convention().house.euler.convention);
 }
 
 render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
@@ -73,9 +75,11 @@ render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
   if (v.show_ghost) st.ghost_world_R_body = ui.doc.state().world_R_reference;
   st.model = v.model;
   st.camera = v.camera;
-  const DisplayConvention& house = ui.doc.convention();
-  st.world = render::parse_world_frame(house.world_frame).value_or(render::WorldFrame::enu());
-  st.body = render::parse_body_frame(house.body_frame).value_or(render::BodyFrame::flu());
+  const HouseConvention& house = ui.doc.convention().house;
+  st.world = render::parse_world_frame(frame_preset_name(house.world, FrameRole::World))
+                 .value_or(render::WorldFrame::enu());
+  st.body = render::parse_body_frame(frame_preset_name(house.body, FrameRole::Body))
+                .value_or(render::BodyFrame::flu());
   st.width_px = width_px;
   st.height_px = height_px;
   return st;
@@ -116,7 +120,8 @@ void views_draw(const Ui& ui) {
   const ImGuiIO& io = ImGui::GetIO();
   const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
   if (!ui.scene_viewport.empty()) {
-    const render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
+    render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
+    apply_teaching_overlay(ui, &st);
     g_renderer->draw(st, region_of(ui.scene_viewport, fb_h));
   }
   if (!ui.gimbal_viewport.empty()) {

@@ -15,6 +15,7 @@
 #include <cstdint>
 #include <cstdio>
 #include <ctime>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
 #include <optional>
@@ -95,9 +96,10 @@ std::optional<std::string> parse_options(const std::vector<std::string>& args, W
 /// 4 deg, bank -12 deg (intrinsic ZYX). Invented for the demo; not data of any vehicle.
 DocumentState demo_state(const Settings& settings) {
   DocumentState s;
-  const auto& builtins = builtin_conventions();
-  s.convention = builtins[static_cast<std::size_t>(
-      std::clamp(settings.convention_index, 0, static_cast<int>(builtins.size()) - 1))];
+  if (!settings.convention_path.empty()) {
+    auto last = load_display_convention(settings.convention_path);  // a file that went away: the default
+    if (last) s.convention = last.value();
+  }
   const EulerConvention zyx{{Axis::Z, Axis::Y, Axis::X}, EulerKind::Intrinsic};
   s.world_R_body = from_euler(zyx, Eigen::Vector3d(62.0, 4.0, -12.0) * (kPi / 180.0));
   return s;
@@ -180,7 +182,7 @@ void draw_panels(Ui& ui) {
     ImGui::End();
   }
   place(right_x + gimbal_w, bottom_y, right_w - gimbal_w, bottom_h);
-  if (ImGui::Begin("Intake", nullptr, fixed)) draw_intake(ui);
+  if (ImGui::Begin("Intake", nullptr, fixed)) draw_lower_tabs(ui);
   ImGui::End();
 }
 
@@ -205,6 +207,27 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["status"] = ui.status;
   j["intake"] = ui.intake_listing;
   j["views"] = views_dump(ui);
+  j["house"] = {{"error", ui.house.error}, {"warnings", ui.house.warnings}, {"message", ui.house.message}};
+  {
+    const TeachingView v = teaching_view(ui.doc.state(), ui.teach);
+    nlohmann::json steps = nlohmann::json::array();
+    for (const EulerStep& st : v.steps.steps) {
+      const Eigen::Quaterniond a = st.after.quaternion();
+      steps.push_back({{"after", {a.w(), a.x(), a.y(), a.z()}},
+                       {"axis_world", {st.axis_world.x(), st.axis_world.y(), st.axis_world.z()}},
+                       {"angle_rad", st.angle_rad},
+                       {"sentence", st.sentence}});
+    }
+    const Eigen::Quaterniond shown = v.shown_world_R_body.quaternion();
+    j["teach"] = {{"active", ui.teach.active},
+                  {"position", ui.teach.position},
+                  {"other_kind", ui.teach.other_kind},
+                  {"convention", v.steps.convention.name()},
+                  {"angles_rad", {v.steps.angles_rad.x(), v.steps.angles_rad.y(), v.steps.angles_rad.z()}},
+                  {"shown", {shown.w(), shown.x(), shown.y(), shown.z()}},
+                  {"sentence", v.sentence},
+                  {"steps", steps}};
+  }
   return j;
 }
 
@@ -435,9 +458,19 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     }
     player.steps = steps.value();
   }
+  // Convention files are checked before the window opens, so a bad one is exit code 2.
   for (const std::string& f : opt.files) {
-    err << "attiscope gui: not opening " << f
-        << ": opening logs and convention files from the command line is not built yet\n";
+    if (std::filesystem::path(f).extension() != ".toml") {
+      err << "attiscope gui: not opening " << f
+          << ": only house convention files (.toml) open from the command line; logs will open in the Track "
+             "panel, which is not built yet\n";
+      return 2;
+    }
+    auto loaded = load_display_convention(f);
+    if (!loaded) {
+      err << "attiscope gui: " << f << ": " << loaded.error().describe() << "\n";
+      return 2;
+    }
   }
   const bool driven = opt.script_path.has_value() || opt.bench_frames > 0;
   // Scripts save settings like a person's session would (tests point XDG_CONFIG_HOME at a
@@ -499,6 +532,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   Ui ui(doc, settings);
   ui.status = "demo pose: an invented survey aircraft";
   ui.spinning = opt.bench_frames > 0;
+  for (const std::string& f : opt.files) open_convention(ui, f);
   float scale = window_scale(window, settings);
   build_fonts(ui, scale);
   ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
@@ -519,7 +553,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     const double now_s = seconds(entered, Clock::now());
     if (driven || frames_left > 0) {
       glfwPollEvents();
-    } else if (ui.spinning) {
+    } else if (ui.spinning || ui.teach.playing) {
       glfwWaitEventsTimeout(kAnimationWaitS);  // the animation's pace: at most about 60 frames a second
     } else {
       const double due = store.seconds_until_due(now_s);
@@ -557,6 +591,8 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       if (!doc.in_motion()) doc.begin_motion("spin");
       doc.move_pose(doc.pose() * elementary_rotation(Axis::Z, kSpinRadPerS * dt));
     }
+    if (ui.teach.playing)
+      advance_teaching(ui, driven ? 1.0 / 60.0 : std::min(0.1, seconds(last_frame, start)));
     last_frame = start;
     ImGui::Render();
     last_vertices = ImGui::GetDrawData()->TotalVtxCount;

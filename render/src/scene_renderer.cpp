@@ -13,6 +13,7 @@
 #include "font.hpp"
 #include "gl.hpp"
 #include "mesh_builder.hpp"
+#include "overlays.hpp"
 #include "shaders.hpp"
 
 namespace attiscope::render {
@@ -522,6 +523,22 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     for (int a = 0; a < 3; ++a)
       draw_arrow(Eigen::Vector3d::Zero(), r.col(a), kBodyTriadLength, 1.0, axis_colors[a], no_glow);
   }
+  if (!st.faded_triads.empty() || !st.turns.empty()) {  // teaching overlays (overlays.cpp)
+    detail::OverlayPainter paint;
+    paint.arrow = [&](const Eigen::Vector3d& from, const Eigen::Vector3d& dir, double length,
+                      double thickness, const Eigen::Vector3f& color) {
+      draw_arrow(from, dir, length, thickness, color, no_glow);
+    };
+    paint.rod = [&](const Eigen::Vector3d& a, const Eigen::Vector3d& b, double radius,
+                    const Eigen::Vector3f& color) {
+      Eigen::Matrix3d m = frame_along(b - a);
+      m.col(0) *= radius;
+      m.col(1) *= radius;
+      m.col(2) *= (b - a).norm();
+      draw_mesh(rod, m, a, Eigen::Vector4f(color.x(), color.y(), color.z(), 1.0f), 1.0f, no_glow);
+    };
+    detail::draw_overlays(st, paint, vec(palette.background), axis_colors, hl);
+  }
   if (st.rings) {
     const GimbalRings g = gimbal_rings(*st.rings);
     const Eigen::Vector3f base = margin_color(g.lock_margin_rad * 180.0 / kPi);
@@ -630,6 +647,10 @@ void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
     for (int a = 0; a < 3; ++a)
       place(Eigen::Vector3d::Zero(), body_axis_tip(st, a), st.body.axis_labels[a], axis_colors[a]);
   }
+  detail::overlay_labels(
+      st, [&](const Eigen::Vector3d& base, const Eigen::Vector3d& tip, const std::string& text) {
+        place(base, tip, text, vec(palette.highlight) * 0.6f);
+      });
   if (st.rings) {
     const GimbalRings g = gimbal_rings(*st.rings);
     const Eigen::Vector3f base = margin_color(g.lock_margin_rad * 180.0 / kPi) * 0.7f;

@@ -25,7 +25,7 @@ TEST(DocumentTest, UndoRedoRestoreEveryChange) {
   doc.set_unit(AngleUnit::Radians);
   EXPECT_EQ(doc.history().size(), 3u);
   doc.undo();
-  EXPECT_EQ(doc.convention().unit, AngleUnit::Degrees);
+  EXPECT_EQ(doc.convention().house.euler.unit, AngleUnit::Degrees);
   doc.undo();
   EXPECT_TRUE(test::RotationNear(doc.pose(), a, test::kTight));
   doc.redo();
@@ -109,15 +109,22 @@ TEST(CardValuesTest, EveryCardReadsBackItsOwnNumbers) {
   for (int i = 0; i < 50; ++i) {
     DocumentState s;
     s.world_R_body = test::RandomRotation(rng);
-    for (const DisplayConvention& c : builtin_conventions()) {
+    std::vector<DisplayConvention> conventions = {DisplayConvention{}};
+    for (const std::string& f : demo_convention_files()) {
+      auto d = load_display_convention(f);
+      ASSERT_TRUE(d.ok()) << f;
+      conventions.push_back(d.value());
+    }
+    ASSERT_GE(conventions.size(), 4u) << "the demo conventions in assets/conventions/ were not found";
+    for (const DisplayConvention& c : conventions) {
       s.convention = c;
       for (Card card : all_cards()) {
         const CardView v = card_view(card, s);
         const EditCheck e = check_card_edit(card, v.numbers, s);
         ASSERT_TRUE(e.rotation.has_value())
-            << card_key(card) << " " << c.name << " seed " << test::kSeed << ": " << e.problem;
+            << card_key(card) << " " << c.house.name << " seed " << test::kSeed << ": " << e.problem;
         EXPECT_TRUE(test::RotationNear(*e.rotation, s.world_R_body, 1e-9))
-            << card_key(card) << " " << c.name << " seed " << test::kSeed;
+            << card_key(card) << " " << c.house.name << " seed " << test::kSeed;
       }
     }
   }
@@ -133,7 +140,9 @@ TEST(SettingsTest, SavedAtomicallyInTheXdgFolder) {
   SettingsStore store(*dir);
   Settings s;
   s.ui_scale = 1.75f;
-  s.convention_index = 2;
+  remember_convention(s, "a.toml");
+  remember_convention(s, "b.toml");
+  remember_convention(s, "a.toml");
   store.changed(s, 10.0);
   EXPECT_FALSE(store.save_if_due(10.5)) << "saved before the debounce delay";
   EXPECT_FALSE(std::filesystem::exists(tmp / "attiscope" / "settings.json"));
@@ -142,7 +151,8 @@ TEST(SettingsTest, SavedAtomicallyInTheXdgFolder) {
   EXPECT_FALSE(std::filesystem::exists(tmp / "attiscope" / "settings.json.tmp"));
   const Settings back = load_settings(*dir);
   EXPECT_FLOAT_EQ(back.ui_scale, 1.75f);
-  EXPECT_EQ(back.convention_index, 2);
+  EXPECT_EQ(back.convention_path, "a.toml");
+  EXPECT_EQ(back.recent_conventions, (std::vector<std::string>{"a.toml", "b.toml"}));
   std::filesystem::remove_all(tmp);
 }
 

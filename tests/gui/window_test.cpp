@@ -4,18 +4,22 @@
 #include <gtest/gtest.h>
 #include <stb_image.h>
 
+#include <algorithm>
+#include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
 
+#include <Eigen/Geometry>
 #include <nlohmann/json.hpp>
 
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/matrix.hpp"
 #include "attiscope/core/quaternion.hpp"
 #include "gui/card_values.hpp"
+#include "gui/display_convention.hpp"
 #include "gui/gui.hpp"
 #include "support/check.hpp"
 
@@ -43,12 +47,15 @@ class WindowTest : public ::testing::Test {
   std::string path(const std::string& name) const { return (dir_ / name).string(); }
 
   /// Runs the window on a script (from the folder "cwd", so stray files would show there).
-  int run(const std::string& script, const std::string& size = "1600x900") {
+  int run(const std::string& script, const std::string& size = "1600x900",
+          const std::vector<std::string>& files = {}) {
     std::ofstream(path("test.script")) << script;
     const auto old = std::filesystem::current_path();
     std::filesystem::current_path(dir_ / "cwd");
     std::ostringstream out, err;
-    const int rc = run_window({"--size", size, "--script", path("test.script")}, out, err);
+    std::vector<std::string> args = {"--size", size, "--script", path("test.script")};
+    args.insert(args.end(), files.begin(), files.end());
+    const int rc = run_window(args, out, err);
     std::filesystem::current_path(old);
     err_ = err.str();
     return rc;
@@ -91,7 +98,7 @@ TEST_F(WindowTest, EulerEditChangesDocumentAndEveryCard) {
   // Every card shows the document's pose, read back through its own numbers.
   DocumentState s;
   s.world_R_body = pose(after);
-  s.convention = builtin_conventions()[0];
+  s.convention = DisplayConvention{};
   for (Card c : all_cards()) {
     const std::vector<double> shown = numbers(after, card_key(c).c_str());
     const EditCheck e = check_card_edit(c, shown, s);
@@ -183,18 +190,21 @@ TEST_F(WindowTest, ZeroQuaternionIsShownAndRefused) {
   EXPECT_FALSE(d2["document"]["edits"]["quaternion"]["has_nearest"].get<bool>());
 }
 
+// The selector lists the default, then the demo files of assets/conventions/ sorted by name:
+// camera-rig, orchard-rover, survey-aircraft (convention.3).
 TEST_F(WindowTest, HouseConventionChangesLabelsAndNumbers) {
   ASSERT_EQ(run("frames 2\ndump " + path("0.json") +
-                "\nclick convention\nframes 2\nclick convention.2\nframes 2\ndump " + path("1.json") + "\n"),
+                "\nclick convention\nframes 2\nclick convention.3\nframes 2\ndump " + path("1.json") +
+                "\nkey ctrl+z\nframes 2\ndump " + path("2.json") + "\n"),
             0)
       << err_;
-  const auto d0 = dump("0.json"), d1 = dump("1.json");
+  const auto d0 = dump("0.json"), d1 = dump("1.json"), d2 = dump("2.json");
   EXPECT_EQ(d1["document"]["quaternion"], d0["document"]["quaternion"]) << "a view change moved the pose";
-  EXPECT_EQ(d1["document"]["unit"], "rad");
+  EXPECT_EQ(d1["document"]["convention"], "Survey aircraft (invented demo)");
   EXPECT_EQ(d1["cards"]["quaternion"]["labels"], nlohmann::json({"x", "y", "z", "w"}));
-  EXPECT_EQ(d1["cards"]["euler_house"]["labels"][0], "phi (Z)");
-  // JPL world-to-body has the same four numbers as Hamilton body-to-world (Trawny &
-  // Roumeliotis 2005, "Indirect Kalman Filter for 3D Attitude Estimation", sec. 2).
+  EXPECT_EQ(d1["cards"]["euler_house"]["labels"][0], "heading (Z)");
+  EXPECT_EQ(d1["cards"]["euler_house"]["labels"][2], "bank (X)");
+  // Hamilton body-to-world scalar-last: the same four numbers, w moved last (common practice).
   const Eigen::Quaterniond q = pose(d0).quaternion();
   const std::vector<double> shown = numbers(d1, "quaternion");
   const std::vector<double> want = {q.x(), q.y(), q.z(), q.w()};
@@ -204,11 +214,21 @@ TEST_F(WindowTest, HouseConventionChangesLabelsAndNumbers) {
   const Eigen::Matrix3d r = pose(d0).matrix();
   for (int i = 0; i < 3; ++i)
     for (int k = 0; k < 3; ++k) EXPECT_NEAR(m[static_cast<std::size_t>(3 * i + k)], r(k, i), 1e-15);
+  // Heading of intrinsic Z-Y-X from the matrix, atan2(r10, r00), wrapped to [0, 360) as the
+  // file asks (the usual 3-2-1 extraction: common practice, from memory).
+  double heading = std::atan2(r(1, 0), r(0, 0)) * 180.0 / kPi;
+  if (heading < 0) heading += 360.0;
+  EXPECT_NEAR(numbers(d1, "euler_house")[0], heading, 1e-9);
+  // Undo brings the default back.
+  EXPECT_EQ(d2["document"]["convention"], d0["document"]["convention"]);
+  EXPECT_EQ(d2["cards"]["quaternion"]["labels"], d0["cards"]["quaternion"]["labels"]);
   // Settings went to the XDG folder, nothing to the working directory.
   EXPECT_TRUE(std::filesystem::exists(dir_ / "config" / "attiscope" / "settings.json"));
   EXPECT_TRUE(std::filesystem::is_empty(dir_ / "cwd"));
   std::ifstream in(dir_ / "config" / "attiscope" / "settings.json");
-  EXPECT_EQ(nlohmann::json::parse(in)["convention_index"], 2);
+  const auto settings = nlohmann::json::parse(in);
+  EXPECT_EQ(std::filesystem::path(settings["recent_conventions"][0].get<std::string>()).filename(),
+            "survey-aircraft.toml");
 }
 
 TEST_F(WindowTest, ScreenshotIsNotBlank) {
@@ -241,6 +261,124 @@ TEST_F(WindowTest, SurvivesTinyAndHugeWindows) {
   EXPECT_EQ(big["framebuffer"], nlohmann::json({3840, 2160}));
   EXPECT_GT(big["scene_viewport"][2].get<int>(), 1000);
   EXPECT_TRUE(std::filesystem::exists(path("small.png")));
+}
+
+}  // namespace
+}  // namespace attiscope::gui
+
+namespace attiscope::gui {
+namespace {
+
+std::string demo_file(const char* name) {
+  const std::string dir = assets_dir();
+  return dir.empty() ? std::string() : dir + "/conventions/" + name;
+}
+
+Rotation quat_of(const nlohmann::json& wxyz) {
+  return Rotation(Eigen::Quaterniond(wxyz[0], wxyz[1], wxyz[2], wxyz[3]));
+}
+
+TEST_F(WindowTest, ConventionFileOnTheCommandLineIsLoaded) {
+  const std::string f = demo_file("camera-rig.toml");
+  ASSERT_FALSE(f.empty()) << "assets/conventions/ not found";
+  ASSERT_EQ(run("frames 2\ndump " + path("0.json") + "\n", "1600x900", {f}), 0) << err_;
+  const auto d = dump("0.json");
+  EXPECT_EQ(d["document"]["convention_path"], f);
+  EXPECT_EQ(d["cards"]["euler_house"]["labels"][0], "pan (Y)");
+}
+
+TEST_F(WindowTest, BadFilesOnTheCommandLineExitTwo) {
+  std::ofstream(path("broken.toml")) << "# a broken file\nname = \"Broken\n";
+  EXPECT_EQ(run("frames 1\n", "1600x900", {path("broken.toml")}), 2);
+  EXPECT_NE(err_.find("line 2"), std::string::npos) << err_;
+  std::ofstream(path("flight.csv")) << "t,qw,qx,qy,qz\n";
+  EXPECT_EQ(run("frames 1\n", "1600x900", {path("flight.csv")}), 2);
+  EXPECT_NE(err_.find("Track panel"), std::string::npos) << err_;
+}
+
+TEST_F(WindowTest, MalformedFileShowsItsErrorAndKeepsTheDocument) {
+  // The wrong type is on line 3, column 12 (the value of kind).
+  std::ofstream(path("bad.toml")) << "# a convention with a wrong type\n[euler]\nsequence = 12\n";
+  ASSERT_EQ(run("frames 2\ndump " + path("0.json") + "\nclick tab.house\nframes 2\nclick house.file\ntype " +
+                path("bad.toml") + "\nkey enter\nframes 3\ndump " + path("1.json") + "\n"),
+            0)
+      << err_;
+  const auto d0 = dump("0.json"), d1 = dump("1.json");
+  EXPECT_EQ(d1["document"]["convention"], d0["document"]["convention"]);
+  EXPECT_EQ(d1["document"]["undo_depth"], d0["document"]["undo_depth"]);
+  EXPECT_EQ(d1["cards"], d0["cards"]);
+  const std::string e = d1["house"]["error"];
+  EXPECT_NE(e.find("line 3, column"), std::string::npos) << e;
+  EXPECT_NE(std::find(d1["widgets"].begin(), d1["widgets"].end(), "house.error"), d1["widgets"].end());
+}
+
+TEST_F(WindowTest, HousePanelEditIsUndoableAndSaveAsWritesTheFile) {
+  const std::string f = demo_file("survey-aircraft.toml");
+  ASSERT_FALSE(f.empty());
+  ASSERT_EQ(
+      run("frames 2\nclick tab.house\nframes 2\nclick house.name.0\nkey ctrl+a\ntype psi\nkey enter\nframes "
+          "3\ndump " +
+              path("1.json") + "\nclick house.file\nkey ctrl+a\ntype " + path("saved.toml") +
+              "\nframes 1\nclick house.save_as\nframes 3\nkey ctrl+z\nframes 1\nkey ctrl+z\nframes 2\ndump " +
+              path("2.json") + "\n",
+          "1600x900", {f}),
+      0)
+      << err_;
+  const auto d1 = dump("1.json");
+  EXPECT_EQ(d1["cards"]["euler_house"]["labels"][0], "psi (Z)");
+  std::ifstream saved(path("saved.toml"));
+  std::stringstream text;
+  text << saved.rdbuf();
+  EXPECT_NE(text.str().find("\"psi\""), std::string::npos) << "Save as did not write the edited names";
+  auto back = load_display_convention(path("saved.toml"));
+  ASSERT_TRUE(back.ok()) << back.error().describe();
+  EXPECT_EQ(back.value().house.euler.names[0], "psi");
+  const auto d2 = dump("2.json");  // undo of the save's path change, then of the edit
+  EXPECT_EQ(d2["cards"]["euler_house"]["labels"][0], "heading (Z)");
+}
+
+// The frames the Teach panel steps through are the partial products of the convention's
+// matrix product (design.md, "Math conventions"): intrinsic Z-Y-X (a, b, c) is
+// R = Rz(a) Ry(b) Rx(c), built left to right; extrinsic X-Y-Z (c, b, a) is the same R built
+// right to left, Rz(a) (Ry(b) (Rx(c))). Elementary turns from Eigen's AngleAxis.
+TEST_F(WindowTest, TeachStepsAreThePartialProducts) {
+  std::string script =
+      "frames 2\nclick tab.teach\nframes 2\nclick teach.start\nframes 2\ndump " + path("s0.json") + "\n";
+  for (int i = 1; i <= 3; ++i) {
+    script += "click teach.forward\nframes 2\ndump " + path("s" + std::to_string(i) + ".json") + "\n";
+  }
+  script += "click teach.other_kind\nframes 2\n";
+  for (int i = 1; i <= 3; ++i) {
+    script += "click teach.forward\nframes 2\ndump " + path("o" + std::to_string(i) + ".json") + "\n";
+  }
+  ASSERT_EQ(run(script), 0) << err_;
+  const auto s0 = dump("s0.json");
+  const Rotation pose_now = pose(s0);
+  const Eigen::Matrix3d r = pose_now.matrix();
+  // Z-Y-X angles of the pose (the usual extraction: common practice, from memory).
+  const double a = std::atan2(r(1, 0), r(0, 0));
+  const double b = std::asin(-r(2, 0));
+  const double c = std::atan2(r(2, 1), r(2, 2));
+  using AA = Eigen::AngleAxisd;
+  const Eigen::Quaterniond z(AA(a, Eigen::Vector3d::UnitZ())), y(AA(b, Eigen::Vector3d::UnitY())),
+      x(AA(c, Eigen::Vector3d::UnitX()));
+  const Rotation intrinsic[3] = {Rotation(z), Rotation(z * y), Rotation(z * y * x)};
+  const Rotation extrinsic[3] = {Rotation(x), Rotation(y * x), Rotation(z * y * x)};
+  EXPECT_TRUE(test::RotationNear(quat_of(s0["teach"]["shown"]), Rotation(), 1e-12)) << "step 0 is the start";
+  for (int i = 0; i < 3; ++i) {
+    const auto d = dump("s" + std::to_string(i + 1) + ".json");
+    EXPECT_EQ(d["teach"]["convention"], "intrinsic ZYX");
+    EXPECT_TRUE(test::RotationNear(quat_of(d["teach"]["shown"]), intrinsic[i], 1e-9))
+        << "intrinsic step " << i;
+    const auto o = dump("o" + std::to_string(i + 1) + ".json");
+    EXPECT_EQ(o["teach"]["convention"], "extrinsic XYZ");
+    EXPECT_TRUE(test::RotationNear(quat_of(o["teach"]["shown"]), extrinsic[i], 1e-9))
+        << "extrinsic step " << i;
+  }
+  EXPECT_TRUE(test::RotationNear(intrinsic[2], pose_now, 1e-9));
+  const std::string sentence = dump("s2.json")["teach"]["sentence"];
+  EXPECT_NE(sentence.find("Step 2 of 3"), std::string::npos) << sentence;
+  EXPECT_NE(sentence.find("pitch"), std::string::npos) << sentence;
 }
 
 }  // namespace

@@ -5,6 +5,7 @@
 #include <Eigen/Core>
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/rotation.hpp"
@@ -23,6 +24,26 @@ struct ModelChoice {
   bool user_mesh = false;  ///< draw SceneRenderer::set_user_mesh's mesh instead
 };
 
+/// A frame left behind by the teaching mode: a triad drawn faded (alpha 0..1 blends its
+/// colours toward the background), at the body's origin.
+struct FadedTriad {
+  Rotation world_R_frame;
+  float alpha = 0.35f;
+};
+
+/// The elementary turn the teaching mode is playing: its axis (world coordinates, through
+/// the body's origin) drawn highlighted, and an arc from the start frame through `shown_rad`
+/// of `angle_rad`, with the angle written beside it.
+struct TurnHighlight {
+  Eigen::Vector3d axis_world = Eigen::Vector3d::UnitZ();
+  Rotation start_world_R_body;
+  double angle_rad = 0.0;  ///< the whole turn, signed
+  double shown_rad = 0.0;  ///< how much of it is drawn so far (same sign)
+  std::string label;       ///< written at the arc's end ("pitch +10 deg")
+  double radius = 1.25;    ///< of the arc (kTurnArcRadius by default)
+  bool show_axis = true;   ///< draw the highlighted axis rod
+};
+
 struct SceneState {
   Rotation world_R_body;                       ///< the pose drawn: v_world = R v_body
   std::optional<Rotation> ghost_world_R_body;  ///< a reference pose, drawn translucent
@@ -38,6 +59,9 @@ struct SceneState {
   bool show_world_triad = true;
   bool show_body_triad = true;
   bool show_labels = true;
+  /// Teaching overlays (render/src/overlays.cpp); empty: nothing extra is drawn.
+  std::vector<FadedTriad> faded_triads;
+  std::vector<TurnHighlight> turns;
   int width_px = 900;
   int height_px = 700;
 };
@@ -53,6 +77,10 @@ inline constexpr double kGroundDepthRings = 2.6;
 inline constexpr double kWorldTriadOffset = 1.1;
 /// Radii of the outer, middle and inner gimbal rings (the body fits inside radius 1).
 inline constexpr double kRingRadius[3] = {2.05, 1.78, 1.51};
+
+/// Radius of the teaching arc and half-length of the highlighted turn axis.
+inline constexpr double kTurnArcRadius = 1.25;
+inline constexpr double kTurnAxisHalfLength = 2.1;
 
 /// World position of the tip of body axis `axis` (0 x, 1 y, 2 z) as drawn.
 Eigen::Vector3d body_axis_tip(const SceneState& state, int axis);
