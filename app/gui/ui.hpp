@@ -5,10 +5,14 @@
 #pragma once
 
 #include <map>
+#include <optional>
 #include <string>
+
+#include <nlohmann/json.hpp>
 
 #include <imgui.h>
 
+#include "gui/check_state.hpp"
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
 
@@ -42,6 +46,14 @@ struct Ui {
   /// Screen rectangles of named widgets this frame ("quaternion.0", "undo"...), so test
   /// scripts can click them like a person would.
   std::map<std::string, ImVec4> widgets;
+  ComparePanelState compare;  ///< the Compare panel's inputs
+  MountPanelState mount;      ///< the Mount check panel's inputs
+  /// A pose shown instead of the document's without committing it (the Compare panel's
+  /// SLERP slider). The Scene draws shown_pose.value_or(doc.pose()), with the document's
+  /// reference as the ghost. Cleared when the preview ends.
+  std::optional<Rotation> shown_pose;
+  /// What the Compare and Mount check panels show this frame, for test dumps ("panels").
+  nlohmann::json panel_state = nlohmann::json::object();
 };
 
 /// Records the last ImGui item under a test name.
@@ -56,6 +68,8 @@ void draw_card(Ui& ui, Card card);
 void draw_intake(Ui& ui);
 void draw_scene_panel(Ui& ui);
 void draw_gimbal_panel(Ui& ui);
+void draw_compare_panel(Ui& ui);
+void draw_mount_panel(Ui& ui);
 
 /// Keyboard shortcuts of the whole window (undo, redo, nudges, Ctrl+V to the intake).
 void handle_shortcuts(Ui& ui);

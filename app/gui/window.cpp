@@ -180,7 +180,28 @@ void draw_panels(Ui& ui) {
     ImGui::End();
   }
   place(right_x + gimbal_w, bottom_y, right_w - gimbal_w, bottom_h);
-  if (ImGui::Begin("Intake", nullptr, fixed)) draw_intake(ui);
+  if (ImGui::Begin("Intake", nullptr, fixed)) {
+    // The bottom-right region holds the paste box and the two check panels as tabs.
+    if (ImGui::BeginTabBar("##tools")) {
+      struct Tab {
+        const char* label;
+        const char* key;
+        void (*draw)(Ui&);
+      };
+      const Tab tabs[] = {{"Intake", "tab.intake", draw_intake},
+                          {"Compare", "tab.compare", draw_compare_panel},
+                          {"Mount check", "tab.mount", draw_mount_panel}};
+      for (const Tab& tab : tabs) {
+        const bool open = ImGui::BeginTabItem(tab.label);
+        record_widget(ui, tab.key);
+        if (open) {
+          tab.draw(ui);
+          ImGui::EndTabItem();
+        }
+      }
+      ImGui::EndTabBar();
+    }
+  }
   ImGui::End();
 }
 
@@ -203,6 +224,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["scene_viewport"] = rect(ui.scene_viewport);
   j["gimbal_viewport"] = rect(ui.gimbal_viewport);
   j["status"] = ui.status;
+  j["panels"] = ui.panel_state;
   return j;
 }
 
@@ -506,6 +528,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     if (opt.script_path) script_input(player, ui, window, err);
     ImGui::NewFrame();
     ui.widgets.clear();
+    ui.panel_state = nlohmann::json::object();
     draw_panels(ui);
     handle_shortcuts(ui);
     if (ui.spinning) {
