@@ -148,9 +148,10 @@ void measured_inputs(Ui& ui) {
   if (ImGui::RadioButton("vector pairs", st.use_vectors)) st.use_vectors = true;
   record_widget(ui, "mount.measured_from_vectors");
   if (st.use_vectors) {
-    ImGui::TextDisabled("one pair a line: sx sy sz vx vy vz [weight]");
+    ImGui::SameLine();
+    ImGui::TextDisabled("a line: sx sy sz vx vy vz [w]");
     text_field("##vectors", st.vectors_text, kMountTextCapacity, true,
-               ImVec2(-1.0f, 4.0f * ImGui::GetTextLineHeightWithSpacing()));
+               ImVec2(-1.0f, 3.0f * ImGui::GetTextLineHeightWithSpacing()));
     record_widget(ui, "mount.vectors");
   } else {
     ImGui::SetNextItemWidth(-1.0f);
@@ -253,7 +254,7 @@ void draw_mount_panel(Ui& ui) {
 
   // Two columns above a caution strip that never scrolls away.
   const ImVec2 avail = ImGui::GetContentRegionAvail();
-  const float caution_h = 3.2f * ImGui::GetTextLineHeightWithSpacing();
+  const float caution_h = 3.2f * ImGui::GetTextLineHeightWithSpacing() + ImGui::GetFrameHeightWithSpacing();
   const float columns_h = std::max(4.0f * ImGui::GetFrameHeightWithSpacing(), avail.y - caution_h);
   const float left_w = std::floor(avail.x * 0.5f);
   ImGui::BeginChild("##mount_inputs", ImVec2(left_w, columns_h), false);
@@ -262,6 +263,19 @@ void draw_mount_panel(Ui& ui) {
   measured_inputs(ui);
   ImGui::Separator();
   settings_inputs(ui);
+  ImGui::EndChild();
+
+  ImGui::SameLine();
+  ImGui::BeginChild("##mount_result", ImVec2(0.0f, columns_h), true);
+  for (const std::string& problem : problems) ImGui::TextColored(kProblemColour, "%s", problem.c_str());
+  if (result)
+    draw_result(ui, *result);
+  else if (problems.empty())
+    ImGui::TextDisabled("Give a measured mount (a reading or vector pairs) to check.");
+  ImGui::EndChild();
+  record_widget(ui, "mount.result");
+
+  // The actions, in a row that does not scroll.
   if (ImGui::SmallButton("Show in scene") && result && result->measured) {
     // One undoable edit: the measured mount as the pose (solid), the nominal as the ghost.
     ui.doc.set_pose_and_reference(
@@ -270,6 +284,7 @@ void draw_mount_panel(Ui& ui) {
         "mount check in scene");
   }
   record_widget(ui, "mount.show_in_scene");
+  ImGui::SameLine();
   ImGui::SetNextItemWidth(8.0f * ImGui::GetFontSize());
   text_field("##sheet", st.sheet_base, 1024, false);
   record_widget(ui, "mount.sheet_base");
@@ -280,6 +295,7 @@ void draw_mount_panel(Ui& ui) {
   }
   record_widget(ui, "mount.export");
   if (result) {
+    ImGui::SameLine();
     if (ImGui::SmallButton("Copy text")) {
       ImGui::SetClipboardText(mount_report_text(*result, ui.doc.convention().precision).c_str());
       ui.status = "copied the mount check as text";
@@ -292,18 +308,10 @@ void draw_mount_panel(Ui& ui) {
     }
     record_widget(ui, "mount.copy_json");
   }
-  if (!st.message.empty()) ImGui::TextWrapped("%s", st.message.c_str());
-  ImGui::EndChild();
-
-  ImGui::SameLine();
-  ImGui::BeginChild("##mount_result", ImVec2(0.0f, columns_h), true);
-  for (const std::string& problem : problems) ImGui::TextColored(kProblemColour, "%s", problem.c_str());
-  if (result)
-    draw_result(ui, *result);
-  else if (problems.empty())
-    ImGui::TextDisabled("Give a measured mount (a reading or vector pairs) to check.");
-  ImGui::EndChild();
-  record_widget(ui, "mount.result");
+  if (!st.message.empty()) {
+    ImGui::SameLine();
+    ImGui::TextUnformatted(st.message.c_str());
+  }
 
   ImGui::PushStyleColor(ImGuiCol_Text, kCautionColour);
   ImGui::TextWrapped("%s", kMountCaution);

@@ -103,7 +103,8 @@ const char* kMeasured = "0.9959 0.0112 0.0236 0.0841";
 TEST_F(CheckPanelsTest, TypedMountGivesTheCommandLinesError) {
   ASSERT_EQ(run(std::string("frames 2\nclick tab.mount\nframes 2\nclick mount.nominal\ntype ") + kNominal +
                 "\nclick mount.measured\ntype " + kMeasured + "\nframes 3\ndump " + path("mount.json") +
-                "\nscreenshot " + path("mount.png") + "\n"),
+                "\nscreenshot " + path("mount.png") + "\nclick mount.show_in_scene\nframes 2\ndump " +
+                path("scene.json") + "\n"),
             0)
       << err_;
   const auto d = dump("mount.json");
@@ -123,6 +124,16 @@ TEST_F(CheckPanelsTest, TypedMountGivesTheCommandLinesError) {
   for (const auto& w : d["widgets"]) caution_drawn = caution_drawn || w == "mount.caution";
   EXPECT_TRUE(caution_drawn);
   EXPECT_GT(picture_stats(path("mount.png")).colours, 20u);
+  // "Show in scene": one undoable edit, measured as the pose, nominal as the reference (ghost).
+  const auto scene = dump("scene.json")["document"];
+  EXPECT_EQ(scene["undo_depth"].get<int>(), d["document"]["undo_depth"].get<int>() + 1);
+  for (const char* k : {"w", "x", "y", "z"}) {
+    EXPECT_NEAR(scene["quaternion"][k].get<double>(), cli["mount"]["quaternion"][k].get<double>(), kSameCall)
+        << k;
+    EXPECT_NEAR(scene["reference_quaternion"][k].get<double>(), cli["nominal"]["quaternion"][k].get<double>(),
+                kSameCall)
+        << k;
+  }
 }
 
 TEST_F(CheckPanelsTest, VectorBoxErrorNamesLineAndSolvesLikeTheCommandLine) {
