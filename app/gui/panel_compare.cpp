@@ -199,7 +199,7 @@ void draw_compare_panel(Ui& ui) {
     if (l.rfind("  note:", 0) == 0 || l.rfind("warning:", 0) == 0)
       ImGui::TextColored(ImVec4(1.0f, 0.8f, 0.35f, 1.0f), "%s", l.c_str());
     else
-      ImGui::TextUnformatted(l.c_str());
+      ImGui::TextWrapped("%s", l.c_str());
   }
   if (ui.mono) ImGui::PopFont();
   std::string text;
