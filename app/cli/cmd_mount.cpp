@@ -14,6 +14,11 @@
 #include "cli/cli.hpp"
 #include "cli/pose_input.hpp"
 
+#ifdef ATTISCOPE_HAVE_RENDER
+#include "attiscope/render/headless.hpp"
+#include "attiscope/render/mount_picture.hpp"
+#endif
+
 namespace attiscope::cli {
 
 namespace {
@@ -46,6 +51,8 @@ const char* kMountHelp =
     "                     setup file (TOML); options given here override it\n"
     "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
     "  --sheet FILE       write the text check sheet (inputs, result, tolerance, date, caution)\n"
+    "  --sheet-png FILE   write the check sheet's picture: the sensor at the nominal mount (ghost)\n"
+    "                     and the measured one (solid) in the vehicle's axes (needs the renderer)\n"
     "  --list-aligned     print the 24 axis-aligned mounts and their names\n"
     "  --relative \"A B\"   with --setup: frame A relative to frame B from the file's frame chain\n"
     "                     (A_R_B maps B coordinates into A, and B's origin in A, metres)\n"
@@ -180,6 +187,7 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
                                {"--setup", true},
                                {"--save", true},
                                {"--sheet", true},
+                               {"--sheet-png", true},
                                {"--relative", true},
                                {"--list-aligned", false}},
                               &o)) {
@@ -293,6 +301,20 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   if (auto path = o.last("--sheet")) {
     auto written = write_text_file(*path, mount_report_text(r, o.precision, utc_date_time()));
     if (!written) return bad(io, "--sheet: " + written.error().describe());
+  }
+  if (auto path = o.last("--sheet-png")) {
+    if (!r.nominal || !r.measured) return bad(io, "--sheet-png needs a nominal and a measured mount");
+#ifdef ATTISCOPE_HAVE_RENDER
+    auto context = render::HeadlessContext::create();
+    if (!context) return bad(io, "--sheet-png: " + context.error().describe());
+    auto renderer = render::SceneRenderer::create();
+    if (!renderer) return bad(io, "--sheet-png: " + renderer.error().describe());
+    auto written = render::write_mount_picture(*renderer.value(), *path, r.nominal->vehicle_R_sensor,
+                                               r.measured->vehicle_R_sensor, r.names);
+    if (!written) return bad(io, "--sheet-png: " + written.error().describe());
+#else
+    return bad(io, "--sheet-png: this build has no renderer (configure with ATTISCOPE_BUILD_GUI=ON)");
+#endif
   }
 
   if (o.json) {

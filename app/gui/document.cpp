@@ -41,6 +41,12 @@ void Document::set_pose(const Rotation& world_R_body, const std::string& what) {
   state_.world_R_body = world_R_body;
 }
 
+void Document::set_pose_and_reference(const Rotation& world_R_body, const Rotation& world_R_reference,
+                                      const std::string& what) {
+  push_undo(what);
+  state_.world_R_body = world_R_body;
+  state_.world_R_reference = world_R_reference;
+}
 void Document::set_reference(const Rotation& world_R_reference, const std::string& what) {
   push_undo(what);
   state_.world_R_reference = world_R_reference;

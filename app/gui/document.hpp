@@ -76,6 +76,9 @@ class Document {
   /// Sets the current pose; `what` names the change in the history ("quaternion edit").
   void set_pose(const Rotation& world_R_body, const std::string& what);
   void set_reference(const Rotation& world_R_reference, const std::string& what);
+  /// Sets pose and reference together, one undo step (the mount check's "show in scene").
+  void set_pose_and_reference(const Rotation& world_R_body, const Rotation& world_R_reference,
+                              const std::string& what);
   void set_second_euler(const EulerConvention& c);
   void set_convention(const DisplayConvention& c);
   void set_unit(AngleUnit unit);

@@ -319,16 +319,20 @@ void draw_house_panel(Ui& ui) {
 
 void draw_lower_tabs(Ui& ui) {
   if (!ImGui::BeginTabBar("lower")) return;
-  const std::array<std::pair<const char*, void (*)(Ui&)>, 4> tabs = {{{"Intake", draw_intake},
-                                                                      {"House convention", draw_house_panel},
-                                                                      {"Teach", draw_teach_panel},
-                                                                      {"Finder", draw_finder_panel}}};
-  const std::array<const char*, 4> keys = {"tab.intake", "tab.house", "tab.teach", "tab.finder"};
-  for (std::size_t i = 0; i < tabs.size(); ++i) {
-    const bool open = ImGui::BeginTabItem(tabs[i].first);
-    record_widget(ui, keys[i]);
+  struct Tab {
+    const char* label;
+    const char* key;
+    void (*draw)(Ui&);
+  };
+  const Tab tabs[] = {
+      {"Intake", "tab.intake", draw_intake},          {"Compare", "tab.compare", draw_compare_panel},
+      {"Mount check", "tab.mount", draw_mount_panel}, {"House convention", "tab.house", draw_house_panel},
+      {"Teach", "tab.teach", draw_teach_panel},       {"Finder", "tab.finder", draw_finder_panel}};
+  for (const Tab& tab : tabs) {
+    const bool open = ImGui::BeginTabItem(tab.label);
+    record_widget(ui, tab.key);
     if (open) {
-      tabs[i].second(ui);
+      tab.draw(ui);
       ImGui::EndTabItem();
     }
   }

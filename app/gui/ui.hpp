@@ -9,10 +9,13 @@
 #include <string>
 #include <vector>
 
+#include <nlohmann/json.hpp>
+
 #include <imgui.h>
 #include <nlohmann/json.hpp>
 
 #include "attiscope/core/finder.hpp"
+#include "gui/check_state.hpp"
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
 #include "gui/teaching.hpp"
@@ -73,6 +76,14 @@ struct Ui {
   HousePanelState house;
   TeachState teach;
   FinderPanelState finder;
+  ComparePanelState compare;  ///< the Compare panel's inputs
+  MountPanelState mount;      ///< the Mount check panel's inputs
+  /// A pose shown instead of the document's without committing it (the Compare panel's
+  /// SLERP slider). The Scene draws shown_pose.value_or(doc.pose()), with the document's
+  /// reference as the ghost. Cleared when the preview ends.
+  std::optional<Rotation> shown_pose;
+  /// What the Compare and Mount check panels show this frame, for test dumps ("panels").
+  nlohmann::json panel_state = nlohmann::json::object();
 };
 
 /// Records the last ImGui item under a test name.
@@ -98,6 +109,8 @@ void draw_finder_panel(Ui& ui);
 bool open_convention(Ui& ui, const std::string& path);
 /// Advances the teaching mode's play position by dt seconds.
 void advance_teaching(Ui& ui, double dt_s);
+void draw_compare_panel(Ui& ui);
+void draw_mount_panel(Ui& ui);
 
 /// Keyboard shortcuts of the whole window (undo, redo, nudges, Ctrl+V to the intake).
 void handle_shortcuts(Ui& ui);

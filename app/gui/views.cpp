@@ -71,7 +71,7 @@ EulerConvention rings_convention(const Ui& ui) {
 render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
   const ViewState& v = g_views;
   render::SceneState st;
-  st.world_R_body = ui.doc.pose();
+  st.world_R_body = ui.shown_pose.value_or(ui.doc.pose());  // a Compare preview shows without committing
   if (v.show_ghost) st.ghost_world_R_body = ui.doc.state().world_R_reference;
   st.model = v.model;
   st.camera = v.camera;

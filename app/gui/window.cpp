@@ -228,6 +228,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
                   {"sentence", v.sentence},
                   {"steps", steps}};
   }
+  j["panels"] = ui.panel_state;
   return j;
 }
 
@@ -583,6 +584,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     if (opt.script_path) script_input(player, ui, window, err);
     ImGui::NewFrame();
     ui.widgets.clear();
+    ui.panel_state = nlohmann::json::object();
     draw_panels(ui);
     handle_shortcuts(ui);
     if (ui.spinning) {

@@ -4,10 +4,10 @@
 #include <toml++/toml.h>
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <fstream>
 #include <sstream>
 
+#include "attiscope/core/atomic_file.hpp"
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/matrix.hpp"
 #include "attiscope/core/mount.hpp"
@@ -385,24 +385,9 @@ std::string mount_setup_toml(const MountSetup& s) {
   return out;
 }
 
-Expected<bool> save_mount_setup(const std::string& path, const MountSetup& setup) {
-  const std::string text = mount_setup_toml(setup);
-  const std::string temp = path + ".saving";
-  {
-    std::ofstream out(temp, std::ios::binary | std::ios::trunc);
-    if (!out) return Error{"cannot write '" + temp + "'"};
-    out << text;
-    out.flush();
-    if (!out) {
-      std::remove(temp.c_str());
-      return Error{"writing '" + temp + "' failed"};
-    }
-  }
-  if (std::rename(temp.c_str(), path.c_str()) != 0) {
-    std::remove(temp.c_str());
-    return Error{"cannot replace '" + path + "'"};
-  }
-  return true;
+Expected<bool> save_mount_setup(const std::string& path, const MountSetup& setup,
+                                const BeforeRenameHook& before_rename) {
+  return write_file_atomically(path, mount_setup_toml(setup), before_rename);
 }
 
 }  // namespace attiscope

@@ -106,7 +106,11 @@ TEST(MountSetupTest, SavesAndLoadsRoundTrip) {
                   .ok());
   const std::string path = temp_path("setup.toml");
   ASSERT_TRUE(save_mount_setup(path, s).ok());
-  EXPECT_FALSE(std::filesystem::exists(path + ".saving"));
+  // No temporary file is left beside the target (atomic_file.hpp names them ".NAME.tmp-*").
+  const std::string temp_prefix = "." + std::filesystem::path(path).filename().string() + ".tmp-";
+  for (const auto& entry : std::filesystem::directory_iterator(std::filesystem::path(path).parent_path())) {
+    EXPECT_NE(entry.path().filename().string().rfind(temp_prefix, 0), 0u) << entry.path();
+  }
   std::vector<std::string> warnings;
   const auto back = load_mount_setup(path, &warnings);
   ASSERT_TRUE(back.ok()) << back.error().describe();
@@ -179,11 +183,15 @@ TEST(MountSetupTest, FailedSaveKeepsTheOldFile) {
   { std::ofstream(path) << "name = \"old\"\n"; }
   MountSetup s;
   s.name = "new";
-  // A directory where the temporary file would go makes the save fail before the rename.
-  std::filesystem::create_directory(path + ".saving");
-  EXPECT_FALSE(save_mount_setup(path, s).ok());
+  // A crash between writing the temporary file and the rename (the hook abandons the save).
+  std::string abandoned;
+  EXPECT_FALSE(save_mount_setup(path, s, [&](const std::string& temp) {
+                 abandoned = temp;
+                 return false;
+               }).ok());
   EXPECT_EQ(load_mount_setup(path)->name, "old");
-  std::filesystem::remove(path + ".saving");
+  EXPECT_FALSE(abandoned.empty());
+  EXPECT_FALSE(std::filesystem::exists(abandoned));
   ASSERT_TRUE(save_mount_setup(path, s).ok());
   EXPECT_EQ(load_mount_setup(path)->name, "new");
   std::filesystem::remove(path);

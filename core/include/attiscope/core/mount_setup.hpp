@@ -18,6 +18,7 @@
 #include <string_view>
 #include <vector>
 
+#include "attiscope/core/atomic_file.hpp"
 #include "attiscope/core/expected.hpp"
 #include "attiscope/core/frame_chain.hpp"
 #include "attiscope/core/rotation.hpp"
@@ -50,7 +51,10 @@ Expected<MountSetup> load_mount_setup(const std::string& path, std::vector<std::
 /// The TOML text of a setup, with a comment line explaining each field; numbers round-trip.
 std::string mount_setup_toml(const MountSetup& setup);
 
-/// Writes the setup atomically: a temporary file beside the target, then a rename.
-Expected<bool> save_mount_setup(const std::string& path, const MountSetup& setup);
+/// Writes the setup atomically through write_file_atomically (atomic_file.hpp): a temporary
+/// file beside the target, flushed, then a rename. `before_rename` is atomic_file.hpp's test
+/// hook (a simulated crash between write and rename).
+Expected<bool> save_mount_setup(const std::string& path, const MountSetup& setup,
+                                const BeforeRenameHook& before_rename = {});
 
 }  // namespace attiscope
