@@ -82,18 +82,6 @@ nlohmann::json interpretation_json(const Interpretation& i, const std::string& m
   return j;
 }
 
-Expected<std::vector<double>> numbers_of(const std::string& text, const char* which) {
-  auto tokens = scan_numbers(text);
-  if (!tokens) {
-    Error e = tokens.error();
-    e.field = which;
-    return e;
-  }
-  std::vector<double> out;
-  for (const NumberToken& t : tokens.value()) out.push_back(t.value);
-  return out;
-}
-
 int run_gravity(const CommonOptions& o, Streams io) {
   const std::string path = *o.last("--gravity");
   auto text = read_whole_file(path);
@@ -189,8 +177,8 @@ int run_find(const std::vector<std::string>& args, Streams io) {
     }
     fo.within_rad = deg / kDegPerRad;
   }
-  auto a = numbers_of(o.positional[0], "A");
-  auto b = numbers_of(o.positional[1], "B");
+  auto a = scan_values(o.positional[0], "A");
+  auto b = scan_values(o.positional[1], "B");
   for (const auto* x : {&a, &b}) {
     if (!*x) {
       io.err << "attiscope find: " << x->error().describe() << "\n";

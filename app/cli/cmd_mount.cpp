@@ -10,6 +10,7 @@
 #include "attiscope/core/mount.hpp"
 #include "attiscope/core/mount_report.hpp"
 #include "attiscope/core/mount_setup.hpp"
+#include "attiscope/core/report.hpp"
 #include "attiscope/core/wahba.hpp"
 #include "cli/cli.hpp"
 #include "cli/pose_input.hpp"
@@ -73,18 +74,6 @@ const char* kMountHelp =
     "  attiscope mount --vectors rover_tilts.txt --nominal \"x forward, z down\" --json\n"
     "\n";
 
-nlohmann::json quat_json(const Rotation& r) {
-  const Eigen::Quaterniond q = r.quaternion();
-  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
-}
-
-nlohmann::json matrix_json(const Rotation& r) {
-  const Eigen::Matrix3d m = r.matrix();
-  nlohmann::json rows = nlohmann::json::array();
-  for (int i = 0; i < 3; ++i) rows.push_back({m(i, 0), m(i, 1), m(i, 2)});
-  return rows;
-}
-
 std::string fmt(double v, int precision) {
   if (v == 0.0) v = 0.0;
   char buf[64];
@@ -120,7 +109,7 @@ int list_aligned(const VehicleAxes& names, const CommonOptions& o, Streams io) {
     nlohmann::json list = nlohmann::json::array();
     for (const AxisAlignedMount& m : all) {
       list.push_back({{"name", m.name},
-                      {"quaternion", quat_json(m.vehicle_R_sensor)},
+                      {"quaternion", quaternion_json(m.vehicle_R_sensor)},
                       {"matrix", matrix_json(m.vehicle_R_sensor)}});
     }
     io.out << nlohmann::json{{"vehicle_axes", names.code()}, {"mounts", list}}.dump(2) << "\n";
@@ -150,7 +139,7 @@ int relative_frames(const MountSetup& setup, const std::string& pair, const Comm
                              {"to", a},
                              {"relation",
                               a + "_R_" + b + " maps " + b + " coordinates into " + a + " coordinates"},
-                             {"quaternion", quat_json(a_R_b)},
+                             {"quaternion", quaternion_json(a_R_b)},
                              {"matrix", matrix_json(a_R_b)},
                              {"translation_m", {t->translation.x(), t->translation.y(), t->translation.z()}},
                              {"path_a", setup.chain.path_from_root(a)},

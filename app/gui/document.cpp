@@ -1,5 +1,6 @@
 // document.cpp: the document's commands and its undo/redo history.
 #include "gui/document.hpp"
+#include "attiscope/core/report.hpp"
 
 #include <algorithm>
 
@@ -168,19 +169,10 @@ void Document::discard_edit(Card c) {
   changed_ = true;
 }
 
-namespace {
-
-nlohmann::json quat_json(const Rotation& r) {
-  const Eigen::Quaterniond q = r.quaternion();
-  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
-}
-
-}  // namespace
-
 nlohmann::json Document::to_json() const {
   nlohmann::json j;
-  j["quaternion"] = quat_json(state_.world_R_body);
-  j["reference_quaternion"] = quat_json(state_.world_R_reference);
+  j["quaternion"] = quaternion_json(state_.world_R_body);
+  j["reference_quaternion"] = quaternion_json(state_.world_R_reference);
   j["second_euler"] = state_.second_euler.name();
   j["convention"] = state_.convention.house.name;
   j["convention_path"] = state_.convention.path;

@@ -27,18 +27,6 @@ bool text_box(const char* label, std::string* text, float height) {
   return false;
 }
 
-Expected<std::vector<double>> numbers_in(const std::string& text, const char* which) {
-  auto tokens = scan_numbers(text);
-  if (!tokens) {
-    Error e = tokens.error();
-    e.field = which;
-    return e;
-  }
-  std::vector<double> out;
-  for (const NumberToken& t : tokens.value()) out.push_back(t.value);
-  return out;
-}
-
 /// The house convention with the interpretation's choices taken over (what it does not
 /// say stays as it was).
 HouseConvention with_interpretation(HouseConvention c, const Interpretation& i) {
@@ -65,8 +53,8 @@ void draw_finder_panel(Ui& ui) {
     f.dirty = false;
     f.error.clear();
     f.result.reset();
-    auto a = numbers_in(f.a, "A");
-    auto b = numbers_in(f.b, "B");
+    auto a = scan_values(f.a, "A");
+    auto b = scan_values(f.b, "B");
     if (!a || !b) {
       f.error = (!a ? a.error() : b.error()).describe();
     } else if (!a.value().empty() && !b.value().empty()) {

@@ -15,11 +15,6 @@ nlohmann::json vec_json(const Eigen::Vector3d& v) {
 
 }  // namespace
 
-nlohmann::json quaternion_json(const Rotation& r) {
-  const Eigen::Quaterniond q = r.quaternion();
-  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
-}
-
 nlohmann::json comparison_json(const Comparison& c) {
   nlohmann::json j;
   j["reference"] = {{"quaternion", quaternion_json(c.world_R_reference)}};

@@ -359,7 +359,8 @@ Expected<MountReading> read_mount_text(std::string_view text, const PoseTextOpti
   m.vehicle_R_sensor = vehicle_to_sensor ? pose.value().rotation.inverse() : pose.value().rotation;
   m.description =
       pose.value().reading + (vehicle_to_sensor ? ", vehicle-to-sensor (inverted)" : ", sensor-to-vehicle");
-  m.alternatives = alternative_readings(pose.value().explicit_text, pose.value().kind, pose.value().options, vehicle_to_sensor);
+  m.alternatives = alternative_readings(pose.value().explicit_text, pose.value().kind, pose.value().options,
+                                        vehicle_to_sensor);
   m.warnings = pose.value().warnings;
   return m;
 }

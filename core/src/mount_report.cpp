@@ -1,5 +1,6 @@
 // mount_report.cpp: a mount check run end to end, as JSON and as text.
 #include "attiscope/core/mount_report.hpp"
+#include "attiscope/core/report.hpp"
 
 #include <cmath>
 #include <cstdio>
@@ -12,18 +13,6 @@ namespace attiscope {
 namespace {
 
 constexpr double kDeg = 180.0 / M_PI;
-
-nlohmann::json quat_json(const Rotation& r) {
-  const Eigen::Quaterniond q = r.quaternion();
-  return {{"w", q.w()}, {"x", q.x()}, {"y", q.y()}, {"z", q.z()}};
-}
-
-nlohmann::json matrix_json(const Rotation& r) {
-  const Eigen::Matrix3d m = r.matrix();
-  nlohmann::json rows = nlohmann::json::array();
-  for (int i = 0; i < 3; ++i) rows.push_back({m(i, 0), m(i, 1), m(i, 2)});
-  return rows;
-}
 
 nlohmann::json vec_json(const Eigen::Vector3d& v) {
   return nlohmann::json::array({v.x(), v.y(), v.z()});
@@ -93,12 +82,12 @@ Expected<MountResult> run_mount_check(const MountInputs& in) {
 nlohmann::json mount_json(const MountResult& r) {
   nlohmann::json j;
   j["vehicle_axes"] = r.names.code();
-  j["mount"] = r.measured ? nlohmann::json{{"quaternion", quat_json(r.measured->vehicle_R_sensor)},
+  j["mount"] = r.measured ? nlohmann::json{{"quaternion", quaternion_json(r.measured->vehicle_R_sensor)},
                                            {"matrix", matrix_json(r.measured->vehicle_R_sensor)},
                                            {"direction", "sensor_to_vehicle"},
                                            {"source", r.measured->description}}
                           : nlohmann::json();
-  j["nominal"] = r.nominal ? nlohmann::json{{"quaternion", quat_json(r.nominal->vehicle_R_sensor)},
+  j["nominal"] = r.nominal ? nlohmann::json{{"quaternion", quaternion_json(r.nominal->vehicle_R_sensor)},
                                             {"matrix", matrix_json(r.nominal->vehicle_R_sensor)},
                                             {"source", r.nominal->description}}
                            : nlohmann::json();
@@ -107,7 +96,7 @@ nlohmann::json mount_json(const MountResult& r) {
     const MountCheck& c = *r.check;
     j["error_deg"] = c.error_rad * kDeg;
     j["error_axis_vehicle"] = vec_json(c.error_axis_vehicle);
-    j["error_quaternion_vehicle"] = quat_json(c.error_vehicle);
+    j["error_quaternion_vehicle"] = quaternion_json(c.error_vehicle);
     j["error_words"] = c.error_words;
     j["error_turns"] = turns_json(c.error_turns);
     j["within_tolerance"] = c.within_tolerance;
@@ -132,7 +121,7 @@ nlohmann::json mount_json(const MountResult& r) {
       j["solver"] = {{"method", "svd"},
                      {"loss", s.loss},
                      {"davenport_difference_deg", s.davenport_difference_rad * kDeg},
-                     {"triad", s.triad ? nlohmann::json{{"quaternion", quat_json(*s.triad)},
+                     {"triad", s.triad ? nlohmann::json{{"quaternion", quaternion_json(*s.triad)},
                                                         {"difference_deg", s.triad_difference_rad * kDeg},
                                                         {"lines", s.triad_lines}}
                                        : nlohmann::json()}};

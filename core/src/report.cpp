@@ -46,6 +46,17 @@ std::string row(const std::vector<double>& v, int precision) {
 
 }  // namespace
 
+nlohmann::json quaternion_json(const Rotation& r) {
+  return quat_json(r.quaternion());
+}
+
+nlohmann::json matrix_json(const Rotation& r) {
+  const Eigen::Matrix3d m = r.matrix();
+  nlohmann::json rows = nlohmann::json::array();
+  for (int i = 0; i < 3; ++i) rows.push_back({m(i, 0), m(i, 1), m(i, 2)});
+  return rows;
+}
+
 nlohmann::json euler_json(const EulerAngles& e) {
   const Eigen::Matrix3d rate = euler_rate_matrix(e.convention, e.angles_rad);
   return {{"sequence", e.convention.sequence()},

@@ -382,6 +382,19 @@ Expected<std::vector<NumberToken>> scan_numbers(std::string_view text, const Sca
   return out;
 }
 
+Expected<std::vector<double>> scan_values(std::string_view text, const std::string& field) {
+  auto tokens = scan_numbers(text);
+  if (!tokens) {
+    Error e = tokens.error();
+    e.field = field;
+    return e;
+  }
+  std::vector<double> out;
+  out.reserve(tokens.value().size());
+  for (const NumberToken& t : tokens.value()) out.push_back(t.value);
+  return out;
+}
+
 std::optional<ReadingKind> parse_reading_kind(std::string_view name) {
   for (ReadingKind k :
        {ReadingKind::QuatWxyz, ReadingKind::QuatXyzw, ReadingKind::MatrixRows, ReadingKind::MatrixCols,

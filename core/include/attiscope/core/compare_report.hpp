@@ -8,10 +8,9 @@
 
 #include "attiscope/core/compare.hpp"
 
-namespace attiscope {
+#include "attiscope/core/report.hpp"  // quaternion_json
 
-/// {"w","x","y","z"} of the canonical quaternion.
-nlohmann::json quaternion_json(const Rotation& r);
+namespace attiscope {
 
 /// reference, current, angle_deg, body {relation, quaternion, axis, angle_deg, turns_deg,
 /// named_turns}, world {relation, quaternion, axis, angle_deg, turns_deg}, euler_difference

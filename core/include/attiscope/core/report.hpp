@@ -20,6 +20,11 @@ struct ReportOptions {
   std::vector<std::string> warnings;
 };
 
+/// {"w","x","y","z"} of the canonical quaternion (the design's "quaternion" object).
+nlohmann::json quaternion_json(const Rotation& r);
+/// The matrix world_R_body (or a_R_b) as 3 rows of 3 numbers.
+nlohmann::json matrix_json(const Rotation& r);
+
 /// One Euler object: {"sequence","kind","angles_deg","lock_margin_deg","at_lock",
 /// "rate_condition_number"}.
 nlohmann::json euler_json(const EulerAngles& e);

@@ -75,6 +75,9 @@ bool looks_like_decimal_commas(std::string_view text);
 /// the degree sign). Any other word is an error that names its line and column.
 Expected<std::vector<NumberToken>> scan_numbers(std::string_view text, const ScanOptions& options = {});
 
+/// The values of scan_numbers alone; an error carries `field` (which input it was about).
+Expected<std::vector<double>> scan_values(std::string_view text, const std::string& field = {});
+
 /// The explicit readings of the command line's --as option.
 enum class ReadingKind {
   QuatWxyz,    ///< quat-wxyz
