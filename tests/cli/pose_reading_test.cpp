@@ -154,8 +154,9 @@ TEST(PoseReadingTest, AsAlwaysWins) {
     };
     const CliRun convert = with({"convert", "--json", text});
     ASSERT_EQ(convert.code, kExitOk) << convert.err;
-    EXPECT_TRUE(test::RotationNear(quat_of(convert.json()["quaternion"]), about_z, kSame));
-    for (const auto& w : convert.json()["warnings"])
+    const nlohmann::json converted = convert.json();
+    EXPECT_TRUE(test::RotationNear(quat_of(converted["quaternion"]), about_z, kSame));
+    for (const auto& w : converted["warnings"])
       EXPECT_EQ(w.get<std::string>().find("ambiguous"), std::string::npos);
     const CliRun compare = with({"compare", "--json", text, text});
     ASSERT_EQ(compare.code, kExitOk) << compare.err;
