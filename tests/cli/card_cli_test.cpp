@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "cli/cli.hpp"
+#include "support/cli_run.hpp"
 
 #ifdef ATTISCOPE_TEST_HAVE_RENDER
 #include "attiscope/render/image.hpp"
@@ -16,17 +17,8 @@
 namespace attiscope::cli {
 namespace {
 
-struct Result {
-  int code;
-  std::string out, err;
-};
-
-Result run_card_args(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  std::istringstream in;
-  const int code = run(args, Streams{out, err, in});
-  return {code, out.str(), err.str()};
-}
+using test::CliRun;
+using test::run_cli;
 
 std::string asset(const char* file) {
   return std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/" + file;
@@ -41,11 +33,11 @@ std::filesystem::path temp_dir(const char* name) {
 
 TEST(CardCliTest, BadInputsExitTwo) {
   const auto d = temp_dir("attiscope_card_bad");
-  EXPECT_EQ(run_card_args({"card", "--out", (d / "a.png").string()}).code, 2) << "no --convention";
-  EXPECT_EQ(run_card_args({"card", "--convention", asset("survey-aircraft.toml")}).code, 2) << "no --out";
+  EXPECT_EQ(run_cli({"card", "--out", (d / "a.png").string()}).code, 2) << "no --convention";
+  EXPECT_EQ(run_cli({"card", "--convention", asset("survey-aircraft.toml")}).code, 2) << "no --out";
   std::ofstream(d / "bad.toml") << "# broken\nname = \"Broken\n";
   const auto bad =
-      run_card_args({"card", "--convention", (d / "bad.toml").string(), "--out", (d / "b.png").string()});
+      run_cli({"card", "--convention", (d / "bad.toml").string(), "--out", (d / "b.png").string()});
   EXPECT_EQ(bad.code, 2);
   EXPECT_NE(bad.err.find("line 2"), std::string::npos) << bad.err;
   EXPECT_FALSE(std::filesystem::exists(d / "b.png"));
@@ -55,8 +47,8 @@ TEST(CardCliTest, BadInputsExitTwo) {
 #ifdef ATTISCOPE_TEST_HAVE_RENDER
 TEST(CardCliTest, WritesANonBlankPngAndTheMarkdown) {
   const auto d = temp_dir("attiscope_card_ok");
-  const auto r = run_card_args({"card", "--convention", asset("survey-aircraft.toml"), "--out",
-                                (d / "card.png").string(), "--md", (d / "card.md").string()});
+  const auto r = run_cli({"card", "--convention", asset("survey-aircraft.toml"), "--out",
+                          (d / "card.png").string(), "--md", (d / "card.md").string()});
   ASSERT_EQ(r.code, 0) << r.err;
   auto img = render::read_png((d / "card.png").string());
   ASSERT_TRUE(img.ok()) << img.error().describe();
@@ -71,8 +63,8 @@ TEST(CardCliTest, WritesANonBlankPngAndTheMarkdown) {
   EXPECT_NE(text.str().find("Survey aircraft"), std::string::npos);
   EXPECT_NE(text.str().find("heading"), std::string::npos);
   // An output folder that does not exist is bad input, not a crash.
-  EXPECT_EQ(run_card_args({"card", "--convention", asset("survey-aircraft.toml"), "--out",
-                           (d / "missing" / "x.png").string()})
+  EXPECT_EQ(run_cli({"card", "--convention", asset("survey-aircraft.toml"), "--out",
+                     (d / "missing" / "x.png").string()})
                 .code,
             2);
   std::filesystem::remove_all(d);

@@ -11,26 +11,13 @@
 #include "attiscope/core/euler.hpp"
 #include "cli/cli.hpp"
 #include "support/check.hpp"
+#include "support/cli_run.hpp"
 
 namespace attiscope::cli {
 namespace {
 
-struct CliRun {
-  int code = 0;
-  std::string out;
-  std::string err;
-  nlohmann::json json() const { return nlohmann::json::parse(out); }
-};
-
-CliRun run_cli(const std::vector<std::string>& args, const std::string& input = "") {
-  std::ostringstream out, err;
-  std::istringstream in(input);
-  CliRun r;
-  r.code = run(args, {out, err, in});
-  r.out = out.str();
-  r.err = err.str();
-  return r;
-}
+using test::CliRun;
+using test::run_cli;
 
 std::string temp_file(const std::string& name, const std::string& text) {
   const std::string path =

@@ -9,22 +9,13 @@
 
 #include "cli/cli.hpp"
 #include "support/check.hpp"
+#include "support/cli_run.hpp"
 
 namespace attiscope::cli {
 namespace {
 
-struct RunResult {
-  int code;
-  std::string out;
-  std::string err;
-};
-
-RunResult run_args(const std::vector<std::string>& args, const std::string& input = "") {
-  std::ostringstream out, err;
-  std::istringstream in(input);
-  const int code = run(args, Streams{out, err, in});
-  return {code, out.str(), err.str()};
-}
+using test::CliRun;
+using test::run_cli;
 
 std::string asset(const char* file) {
   return std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/" + file;
@@ -34,7 +25,7 @@ std::string fixture(const char* file) {
 }
 
 TEST(ConventionCliTest, ConvertAddsTheHouseObject) {
-  const auto r = run_args({"convert", "--json", "--convention", asset("survey-aircraft.toml"), "30 20 10"});
+  const auto r = run_cli({"convert", "--json", "--convention", asset("survey-aircraft.toml"), "30 20 10"});
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const auto j = nlohmann::json::parse(r.out);
   // The design's keys are unchanged.
@@ -64,7 +55,7 @@ TEST(ConventionCliTest, ConvertAddsTheHouseObject) {
 
 TEST(ConventionCliTest, ConvertTableShowsHouseNamesInPrintOrder) {
   // The rover prints roll, pitch, yaw: "5 -10 60" is roll 5, pitch -10, yaw 60.
-  const auto r = run_args({"convert", "--convention", asset("orchard-rover.toml"), "5 -10 60"});
+  const auto r = run_cli({"convert", "--convention", asset("orchard-rover.toml"), "5 -10 60"});
   ASSERT_EQ(r.code, kExitOk) << r.err;
   EXPECT_NE(r.out.find("house euler          roll 5  pitch -10  yaw 60 deg"), std::string::npos) << r.out;
   // The design's own Euler line still uses --euler (default intrinsic ZYX): yaw 60 first.
@@ -73,10 +64,10 @@ TEST(ConventionCliTest, ConvertTableShowsHouseNamesInPrintOrder) {
 }
 
 TEST(ConventionCliTest, BadConventionFileExitsTwoWithLineAndColumn) {
-  const auto r = run_args({"convert", "--convention", fixture("bad-type.toml"), "1 0 0 0"});
+  const auto r = run_cli({"convert", "--convention", fixture("bad-type.toml"), "1 0 0 0"});
   EXPECT_EQ(r.code, kExitBadInput);
   EXPECT_NE(r.err.find("line 3, column 12"), std::string::npos) << r.err;
-  const auto w = run_args({"convert", "--convention", fixture("warn-unknown-keys.toml"), "1 0 0 0"});
+  const auto w = run_cli({"convert", "--convention", fixture("warn-unknown-keys.toml"), "1 0 0 0"});
   EXPECT_EQ(w.code, kExitOk) << w.err;
   EXPECT_NE(w.err.find("warning"), std::string::npos);
   EXPECT_NE(w.err.find("line 5, column 1: unknown key 'euler.sequnce'"), std::string::npos) << w.err;
@@ -85,13 +76,13 @@ TEST(ConventionCliTest, BadConventionFileExitsTwoWithLineAndColumn) {
 TEST(ConventionCliTest, FindJsonHasTheDesignKeys) {
   // ZYX (10, 20, 30) degrees as a Hamilton quaternion in x y z w order, from the tool's
   // own convert (the finder must name the layout).
-  const auto c = run_args({"convert", "--json", "--as", "euler", "10 20 30"});
+  const auto c = run_cli({"convert", "--json", "--as", "euler", "10 20 30"});
   ASSERT_EQ(c.code, kExitOk);
   const auto q = nlohmann::json::parse(c.out)["quaternion_xyzw"];
   std::ostringstream quat;
   quat.precision(17);
   for (const auto& v : q) quat << v.get<double>() << " ";
-  const auto r = run_args({"find", "--json", "10 20 30", quat.str()});
+  const auto r = run_cli({"find", "--json", "10 20 30", quat.str()});
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const auto j = nlohmann::json::parse(r.out);
   ASSERT_FALSE(j["matches"].empty());
@@ -115,13 +106,13 @@ TEST(ConventionCliTest, FindJsonHasTheDesignKeys) {
 }
 
 TEST(ConventionCliTest, FindExitCodes) {
-  EXPECT_EQ(run_args({"find", "1 2", "1 0 0 0"}).code, kExitBadInput);
-  EXPECT_EQ(run_args({"find", "1 2 3"}).code, kExitBadInput);
-  const auto bad = run_args({"find", "1 2 x", "1 0 0 0"});
+  EXPECT_EQ(run_cli({"find", "1 2", "1 0 0 0"}).code, kExitBadInput);
+  EXPECT_EQ(run_cli({"find", "1 2 3"}).code, kExitBadInput);
+  const auto bad = run_cli({"find", "1 2 x", "1 0 0 0"});
   EXPECT_EQ(bad.code, kExitBadInput);
   EXPECT_NE(bad.err.find("A: line 1, column 5"), std::string::npos) << bad.err;
   // A rotation of 180 degrees about x never equals the identity: no match, exit 1.
-  const auto none = run_args({"find", "0 0 0", "0 1 0 0", "--within", "0.1"});
+  const auto none = run_cli({"find", "0 0 0", "0 1 0 0", "--within", "0.1"});
   EXPECT_EQ(none.code, kExitCheckFailed) << none.out << none.err;
   EXPECT_NE(none.out.find("no interpretation agrees"), std::string::npos);
 }
@@ -143,7 +134,7 @@ TEST(ConventionCliTest, FindGravityRanksTheLogLayout) {
         << q.w() << "\n";
     }
   }
-  const auto r = run_args({"find", "--gravity", path, "--json"});
+  const auto r = run_cli({"find", "--gravity", path, "--json"});
   std::remove(path.c_str());
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const auto j = nlohmann::json::parse(r.out);
@@ -153,7 +144,7 @@ TEST(ConventionCliTest, FindGravityRanksTheLogLayout) {
 }
 
 TEST(ConventionCliTest, ConventionStepsAndFrameChange) {
-  const auto s = run_args({"convention", asset("survey-aircraft.toml"), "--steps", "30 10 5"});
+  const auto s = run_cli({"convention", asset("survey-aircraft.toml"), "--steps", "30 10 5"});
   ASSERT_EQ(s.code, kExitOk) << s.err;
   EXPECT_NE(
       s.out.find("Step 1 of 3 \u2014 heading +30 degrees about the body's down axis: the nose turns right"),
@@ -162,8 +153,8 @@ TEST(ConventionCliTest, ConventionStepsAndFrameChange) {
   EXPECT_NE(s.out.find("the same pose as extrinsic XYZ:"), std::string::npos);
   // references.md T13: NED/FRD (30, 10, 5) is ENU/FLU (60, -10, 5); the rover prints roll,
   // pitch, yaw.
-  const auto t = run_args({"convention", asset("survey-aircraft.toml"), "--to", asset("orchard-rover.toml"),
-                           "--pose", "30 10 5", "--json"});
+  const auto t = run_cli({"convention", asset("survey-aircraft.toml"), "--to", asset("orchard-rover.toml"),
+                          "--pose", "30 10 5", "--json"});
   ASSERT_EQ(t.code, kExitOk) << t.err;
   const auto j = nlohmann::json::parse(t.out);
   const auto v = j["pose_to"]["euler"]["values"];
@@ -171,7 +162,7 @@ TEST(ConventionCliTest, ConventionStepsAndFrameChange) {
   EXPECT_NEAR(v[1].get<double>(), -10.0, 1e-9);
   EXPECT_NEAR(v[2].get<double>(), 60.0, 1e-9);
   EXPECT_EQ(j["frame_change"]["from"], "NED/FRD");
-  const auto bad = run_args({"convention", fixture("bad-left-handed.toml")});
+  const auto bad = run_cli({"convention", fixture("bad-left-handed.toml")});
   EXPECT_EQ(bad.code, kExitBadInput);
   EXPECT_NE(bad.err.find("line 4, column 8"), std::string::npos) << bad.err;
 }
@@ -179,9 +170,9 @@ TEST(ConventionCliTest, ConventionStepsAndFrameChange) {
 TEST(ConventionCliTest, ConventionWriteMakesALoadableFile) {
   const std::string path = (std::filesystem::temp_directory_path() / "attiscope-written-house.toml").string();
   std::remove(path.c_str());
-  const auto w = run_args({"convention", asset("camera-rig.toml"), "--write", path});
+  const auto w = run_cli({"convention", asset("camera-rig.toml"), "--write", path});
   ASSERT_EQ(w.code, kExitOk) << w.err;
-  const auto again = run_args({"convention", path, "--json"});
+  const auto again = run_cli({"convention", path, "--json"});
   std::remove(path.c_str());
   ASSERT_EQ(again.code, kExitOk) << again.err;
   EXPECT_EQ(nlohmann::json::parse(again.out)["name"], "Inspection camera rig (invented demo)");

@@ -9,21 +9,13 @@
 #include <sstream>
 
 #include "cli/cli.hpp"
+#include "support/cli_run.hpp"
 
 namespace attiscope::cli {
 namespace {
 
-struct Result {
-  int code;
-  std::string out, err;
-};
-
-Result RunCli(const std::vector<std::string>& args, const std::string& stdin_text = "") {
-  std::ostringstream out, err;
-  std::istringstream in(stdin_text);
-  const int code = run(args, Streams{out, err, in});
-  return {code, out.str(), err.str()};
-}
+using test::CliRun;
+using test::run_cli;
 
 TEST(ConvertCliTest, BadInputExitsTwoWithAPlaceAndNoRotation) {
   struct Case {
@@ -48,7 +40,7 @@ TEST(ConvertCliTest, BadInputExitsTwoWithAPlaceAndNoRotation) {
   };
   const std::regex place("line [0-9]+, column [0-9]+");
   for (const Case& c : cases) {
-    const Result r = RunCli(c.args);
+    const CliRun r = run_cli(c.args);
     const std::string what = c.args.back();
     EXPECT_EQ(r.code, kExitBadInput) << what << "\n" << r.err;
     EXPECT_TRUE(r.out.empty()) << what << ": printed\n" << r.out;
@@ -59,7 +51,7 @@ TEST(ConvertCliTest, BadInputExitsTwoWithAPlaceAndNoRotation) {
     EXPECT_TRUE(std::regex_search(r.err, place)) << r.err;
   }
   // From standard input, on the second line.
-  const Result r = RunCli({"convert", "--as", "quat-wxyz"}, "0.5 0.5\n0.5 bogus\n");
+  const CliRun r = run_cli({"convert", "--as", "quat-wxyz"}, "0.5 0.5\n0.5 bogus\n");
   EXPECT_EQ(r.code, kExitBadInput);
   EXPECT_TRUE(r.out.empty());
   EXPECT_NE(r.err.find("line 2, column 5"), std::string::npos) << r.err;
@@ -72,7 +64,7 @@ TEST(ConvertCliTest, BadUsageExitsTwo) {
                                              {"convert", "--bogus", "1 0 0 0"},
                                              {"convert", "--precision", "99", "1 0 0 0"},
                                              {"no-such-command"}}) {
-    const Result r = RunCli(args);
+    const CliRun r = run_cli(args);
     EXPECT_EQ(r.code, kExitBadInput) << args[1];
     EXPECT_TRUE(r.out.empty()) << r.out;
     EXPECT_FALSE(r.err.empty());
@@ -82,18 +74,18 @@ TEST(ConvertCliTest, BadUsageExitsTwo) {
 TEST(ConvertCliTest, HelpExitsZero) {
   for (const std::vector<std::string>& args : std::vector<std::vector<std::string>>{
            {"--help"}, {"help"}, {"convert", "--help"}, {"convert", "-h"}, {"convert", "--json", "--help"}}) {
-    const Result r = RunCli(args);
+    const CliRun r = run_cli(args);
     EXPECT_EQ(r.code, kExitOk);
     EXPECT_NE(r.out.find("usage: attiscope"), std::string::npos) << r.out;
     EXPECT_TRUE(r.err.empty());
   }
-  EXPECT_NE(RunCli({"convert", "--help"}).out.find("--euler SEQ"), std::string::npos);
+  EXPECT_NE(run_cli({"convert", "--help"}).out.find("--euler SEQ"), std::string::npos);
 }
 
 TEST(ConvertCliTest, GoodInputPrintsTheJsonOfTheDesign) {
   // The issue's own acceptance example: intrinsic ZYX (30, 20, 10) deg; the matrix values are
   // the reference-script ones of references.md section 3, 12 digits.
-  const Result r = RunCli({"convert", "--json", "--as", "euler", "--euler", "ZYX", "30 20 10"});
+  const CliRun r = run_cli({"convert", "--json", "--as", "euler", "--euler", "ZYX", "30 20 10"});
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   EXPECT_NEAR(j["matrix"][0][0].get<double>(), 0.813797681349, 1e-12);
@@ -103,15 +95,15 @@ TEST(ConvertCliTest, GoodInputPrintsTheJsonOfTheDesign) {
   EXPECT_EQ(j["euler"]["kind"], "intrinsic");
   EXPECT_EQ(j["reading"], "euler intrinsic ZYX");
   // A non-unit quaternion is accepted with a warning, and exits 0.
-  const Result w = RunCli({"convert", "--json", "--as", "quat-wxyz", "2 0 0 0"});
+  const CliRun w = run_cli({"convert", "--json", "--as", "quat-wxyz", "2 0 0 0"});
   ASSERT_EQ(w.code, kExitOk);
   EXPECT_NE(nlohmann::json::parse(w.out)["warnings"].dump().find("norm"), std::string::npos);
   // Plain table.
-  const Result t = RunCli({"convert", "--as", "quat-xyzw", "0 0 0 1"});
+  const CliRun t = run_cli({"convert", "--as", "quat-xyzw", "0 0 0 1"});
   EXPECT_EQ(t.code, kExitOk);
   EXPECT_NE(t.out.find("quaternion"), std::string::npos);
   // Huge but finite numbers are a direction, not a zero or NaN rotation.
-  const Result big = RunCli({"convert", "--json", "--as", "quat-wxyz", "1e200 0 0 1e200"});
+  const CliRun big = run_cli({"convert", "--json", "--as", "quat-wxyz", "1e200 0 0 1e200"});
   ASSERT_EQ(big.code, kExitOk) << big.err;
   EXPECT_NEAR(nlohmann::json::parse(big.out)["quaternion"]["z"].get<double>(), std::sqrt(0.5), 1e-15);
 }

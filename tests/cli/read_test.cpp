@@ -6,21 +6,13 @@
 
 #include "cli/cli.hpp"
 #include "support/check.hpp"
+#include "support/cli_run.hpp"
 
 namespace attiscope::cli {
 namespace {
 
-struct CliRun {
-  int code;
-  std::string out, err;
-};
-
-CliRun RunWith(const std::vector<std::string>& args, const std::string& input) {
-  std::ostringstream out, err;
-  std::istringstream in(input);
-  const int code = run(args, Streams{out, err, in});
-  return {code, out.str(), err.str()};
-}
+using test::CliRun;
+using test::run_cli;
 
 TEST(ReadCommandTest, EveryErrorClassExitsTwoAndNamesThePlace) {
   struct Case {
@@ -40,7 +32,7 @@ TEST(ReadCommandTest, EveryErrorClassExitsTwoAndNamesThePlace) {
   };
   for (const Case& c : cases) {
     for (const char* cmd : {"read", "convert"}) {
-      const CliRun r = RunWith({cmd}, c.text);
+      const CliRun r = run_cli({cmd}, c.text);
       EXPECT_EQ(r.code, kExitBadInput) << cmd << " " << c.text;
       EXPECT_NE(r.err.find(c.place), std::string::npos) << cmd << ": " << r.err;
       EXPECT_NE(r.err.find(c.words), std::string::npos) << cmd << ": " << r.err;
@@ -49,7 +41,7 @@ TEST(ReadCommandTest, EveryErrorClassExitsTwoAndNamesThePlace) {
 }
 
 TEST(ReadCommandTest, JsonKeysOfTheDesign) {
-  const CliRun r = RunWith({"read", "--json"}, "qx=0 qy=0 qz=0.3826834323650898 qw=0.9238795325112867");
+  const CliRun r = run_cli({"read", "--json"}, "qx=0 qy=0 qz=0.3826834323650898 qw=0.9238795325112867");
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const auto j = nlohmann::json::parse(r.out);
   ASSERT_FALSE(j.at("readings").empty());
@@ -64,13 +56,13 @@ TEST(ReadCommandTest, JsonKeysOfTheDesign) {
 }
 
 TEST(ReadCommandTest, ConvertWarnsWhenAmbiguous) {
-  const CliRun r = RunWith({"convert", "--json"}, "0.9238795325112867 0 0 0.3826834323650898");
+  const CliRun r = run_cli({"convert", "--json"}, "0.9238795325112867 0 0 0.3826834323650898");
   ASSERT_EQ(r.code, kExitOk) << r.err;
   const auto j = nlohmann::json::parse(r.out);
   bool warned = false;
   for (const auto& w : j["warnings"]) warned |= w.get<std::string>().find("ambiguous") != std::string::npos;
   EXPECT_TRUE(warned) << r.out;
-  const CliRun labelled = RunWith({"convert", "--json"}, "w=0.9238795325112867 x=0 y=0 z=0.3826834323650898");
+  const CliRun labelled = run_cli({"convert", "--json"}, "w=0.9238795325112867 x=0 y=0 z=0.3826834323650898");
   const auto k = nlohmann::json::parse(labelled.out);
   for (const auto& w : k["warnings"]) EXPECT_EQ(w.get<std::string>().find("ambiguous"), std::string::npos);
 }

@@ -14,8 +14,8 @@
 
 #include "attiscope/core/columns.hpp"
 #include "attiscope/core/track_analysis.hpp"
-#include "cli/cli.hpp"
 #include "support/check.hpp"
+#include "support/cli_run.hpp"
 #include "support/track_gen.hpp"
 
 namespace attiscope {
@@ -23,21 +23,10 @@ namespace {
 
 namespace fs = std::filesystem;
 
-struct CliRun {
-  int code = -1;
-  std::string out, err;
-};
-
-CliRun RunTrack(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  std::istringstream in;
-  CliRun r;
+test::CliRun RunTrack(const std::vector<std::string>& args) {
   std::vector<std::string> full = {"track"};
   full.insert(full.end(), args.begin(), args.end());
-  r.code = cli::run(full, {out, err, in});
-  r.out = out.str();
-  r.err = err.str();
-  return r;
+  return test::run_cli(full);
 }
 
 // A scratch directory per test, removed afterwards.
@@ -93,7 +82,7 @@ TEST_F(TrackCliTest, MalformedRowsInTheMiddleAreCountedAndNamedAndTheRestLoads) 
                                                 {{100, "2.01,0.5,0.5"},     // too few fields
                                                  {500, "10.01,abc,0,0,1"},  // not a number
                                                  {700, "14.01,0,0,0,0"}});  // zero quaternion
-  const CliRun r = RunTrack({Path("log.csv"), "--json"});
+  const test::CliRun r = RunTrack({Path("log.csv"), "--json"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   EXPECT_EQ(j["samples"], 1000);
@@ -116,7 +105,7 @@ TEST_F(TrackCliTest, EventsFromAFileAtTheGeneratedSamples) {
   test::ScaleSamples(&t, 1200, 1201, 1.05);
   t.time_s[1300] = t.time_s[1299];
   WriteCsv(Path("log.csv"), t, {{400, "oops"}});  // a bad row does not shift sample numbers
-  const CliRun r = RunTrack({Path("log.csv"), "--json", "--euler", "321", "--rate-limit", "50"});
+  const test::CliRun r = RunTrack({Path("log.csv"), "--json", "--euler", "321", "--rate-limit", "50"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   std::vector<std::pair<std::size_t, std::string>> got;
@@ -141,7 +130,7 @@ TEST_F(TrackCliTest, ExportedCleanCopyRereadsToTheSameRotationsWithoutSignFlips)
                                               {"--export-as", "matrix", "--export-storage", "columns"}}) {
     std::vector<std::string> args = {Path("log.csv"), "--json", "--export", Path("clean.csv")};
     args.insert(args.end(), how.begin(), how.end());
-    const CliRun r = RunTrack(args);
+    const test::CliRun r = RunTrack(args);
     ASSERT_EQ(r.code, 0) << r.err;
     const nlohmann::json j = nlohmann::json::parse(r.out);
     ASSERT_TRUE(j.contains("clean"));
@@ -175,7 +164,7 @@ TEST_F(TrackCliTest, BadUsageAndMissingFilesExitWith2) {
   EXPECT_EQ(RunTrack({}).code, 2);
   EXPECT_EQ(RunTrack({Path("none.csv")}).code, 2);
   WriteCsv(Path("log.csv"), Rover(100));
-  const CliRun r = RunTrack({Path("log.csv"), "--rate-limit", "fast"});
+  const test::CliRun r = RunTrack({Path("log.csv"), "--rate-limit", "fast"});
   EXPECT_EQ(r.code, 2);
   EXPECT_NE(r.err.find("--rate-limit needs a positive number"), std::string::npos) << r.err;
   EXPECT_EQ(RunTrack({Path("log.csv"), "--export-as", "gibbs", "--export", Path("x.csv")}).code, 2);
@@ -188,7 +177,7 @@ std::string DemoLog(const char* name) {
 }
 
 TEST(TrackDemoLogTest, RoverYardRunGivesTheListedEvents) {
-  const CliRun r = RunTrack({DemoLog("rover_yard_run.csv"), "--json", "--rate-limit", "90"});
+  const test::CliRun r = RunTrack({DemoLog("rover_yard_run.csv"), "--json", "--rate-limit", "90"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   EXPECT_EQ(j["samples"], 4000);
@@ -212,7 +201,7 @@ TEST(TrackDemoLogTest, RoverYardRunGivesTheListedEvents) {
 }
 
 TEST(TrackDemoLogTest, GimbalSweepIsNearLockInZyxOnly) {
-  const CliRun r = RunTrack({DemoLog("gimbal_tilt_sweep.csv"), "--json", "--euler", "ZYX"});
+  const test::CliRun r = RunTrack({DemoLog("gimbal_tilt_sweep.csv"), "--json", "--euler", "ZYX"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   // Scalar-last columns: the fifth column holds w.
@@ -223,7 +212,7 @@ TEST(TrackDemoLogTest, GimbalSweepIsNearLockInZyxOnly) {
   EXPECT_EQ(j["events"][0]["sample"], 1000);  // 60 + 3 t + 0.0015 passes 90 at t = 9.9995
   EXPECT_EQ(j["events"][0]["kind"], "near_lock");
   ASSERT_EQ(j["near_lock_spans"].size(), 1u);
-  const CliRun x = RunTrack({DemoLog("gimbal_tilt_sweep.csv"), "--json", "--euler", "XYZ"});
+  const test::CliRun x = RunTrack({DemoLog("gimbal_tilt_sweep.csv"), "--json", "--euler", "XYZ"});
   const nlohmann::json jx = nlohmann::json::parse(x.out);
   EXPECT_TRUE(jx["events"].empty()) << jx["events"].dump();
   EXPECT_TRUE(jx["near_lock_spans"].empty());
