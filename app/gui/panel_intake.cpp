@@ -218,7 +218,14 @@ void list_readings(Ui& ui, const std::string& text) {
     ui.intake_listing = listing;
     return;
   }
-  const auto result = read_pasted(text, intake_preferences(ui.doc.convention()));
+  const IntakePreferences preferences = intake_preferences(ui.doc.convention());
+  Ui::IntakeReading& cached = ui.intake_reading;
+  if (!cached.result || cached.text != text || !(cached.preferences == preferences)) {
+    cached.result = read_pasted(text, preferences);
+    cached.text = text;
+    cached.preferences = preferences;
+  }
+  const Expected<IntakeResult>& result = *cached.result;
   ImGui::BeginChild("##readings", ImVec2(0.0f, 0.0f), false);
   if (!result) {
     show_error(ui, text, result.error(), listing);
@@ -254,14 +261,17 @@ void list_readings(Ui& ui, const std::string& text) {
 }  // namespace
 
 void draw_intake(Ui& ui) {
-  if (ui.intake_text.capacity() < kIntakeCapacity) ui.intake_text.reserve(kIntakeCapacity);
   if (ui.focus_intake) {
     ImGui::SetKeyboardFocusHere();
     ui.focus_intake = false;
   }
-  // A fixed buffer: ImGui 1.86 edits a char array; the text lives in Ui between frames.
-  std::string buffer = ui.intake_text;
-  buffer.resize(kIntakeCapacity, '\0');
+  // A fixed buffer: ImGui 1.86 edits a char array. The text lives in Ui; the buffer follows
+  // it when something else (Ctrl+V outside a field, a script) changed it.
+  std::string& buffer = ui.intake_buffer;
+  if (buffer.size() != kIntakeCapacity || ui.intake_text != buffer.c_str()) {
+    buffer = ui.intake_text;
+    buffer.resize(kIntakeCapacity, '\0');
+  }
   const float h = std::max(3.0f * ImGui::GetFontSize(), ImGui::GetContentRegionAvail().y * 0.14f);
   if (ui.mono) ImGui::PushFont(ui.mono);
   if (ImGui::InputTextMultiline("##paste", buffer.data(), buffer.size(), ImVec2(-1.0f, h))) {

@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "attiscope/core/finder.hpp"
+#include "attiscope/core/intake.hpp"
 #include "gui/check_state.hpp"
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
@@ -73,6 +74,15 @@ struct Ui {
   std::map<std::string, ImVec4> widgets;
   /// What the Intake panel lists this frame (readings as shown, or the error), for dumps.
   nlohmann::json intake_listing;
+  /// The paste box's edit buffer (ImGui 1.86 edits a fixed char array), kept between frames.
+  std::string intake_buffer;
+  /// The last reading of the paste box and what it was read against: the text is read again
+  /// only when it or the house preferences change, not every frame.
+  struct IntakeReading {
+    std::string text;
+    IntakePreferences preferences;
+    std::optional<Expected<IntakeResult>> result;
+  } intake_reading;
   HousePanelState house;
   TeachState teach;
   FinderPanelState finder;

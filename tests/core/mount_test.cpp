@@ -256,7 +256,9 @@ TEST(MountTextTest, WordsNumbersAndDirection) {
     }
   }
   EXPECT_TRUE(found);
-  const auto bad = read_mount_text("0.9 0.3 0.2", PoseTextOptions{ReadingKind::QuatWxyz, {}}, kFrd);
+  PoseTextOptions as_quaternion;
+  as_quaternion.as = ReadingKind::QuatWxyz;
+  const auto bad = read_mount_text("0.9 0.3 0.2", as_quaternion, kFrd);
   ASSERT_FALSE(bad.ok());
   EXPECT_EQ(bad.error().line, 1);
   EXPECT_FALSE(read_mount_text("1 2", guess, kFrd).ok());

@@ -43,6 +43,11 @@ struct IntakePreferences {
   /// The world's up direction, for "5 degrees up" in the body-axes sentence (+z for ENU;
   /// a NED house sets -z).
   Eigen::Vector3d world_up = Eigen::Vector3d::UnitZ();
+
+  bool operator==(const IntakePreferences& o) const {
+    return euler == o.euler && unit == o.unit && quat_layout == o.quat_layout &&
+           matrix_storage == o.matrix_storage && world_up == o.world_up;
+  }
 };
 
 enum class IntakeKind {
