@@ -28,11 +28,8 @@ constexpr DirectionWord kWorldWords[] = {
     {"east", 1, 0, 0},   {"west", -1, 0, 0}, {"north", 0, 1, 0},
     {"south", 0, -1, 0}, {"up", 0, 0, 1},    {"down", 0, 0, -1},
 };
-// Body reference FLU: x forward, y left, z up (common practice; ISO 8855 [F3]).
-constexpr DirectionWord kBodyWords[] = {
-    {"forward", 1, 0, 0}, {"back", -1, 0, 0}, {"left", 0, 1, 0},
-    {"right", 0, -1, 0},  {"up", 0, 0, 1},    {"down", 0, 0, -1},
-};
+// Body reference FLU: x forward, y left, z up (common practice; ISO 8855 [F3]). The body's
+// words and vectors come from vehicle_axes.hpp's one table of body directions.
 
 std::string lower(std::string_view s) {
   std::string out(s);
@@ -42,7 +39,11 @@ std::string lower(std::string_view s) {
 
 std::string word_list(FrameRole role) {
   std::string out;
-  for (const DirectionWord& w : role == FrameRole::World ? kWorldWords : kBodyWords) {
+  if (role == FrameRole::Body) {
+    for (BodyDirection d : body_directions()) out += (out.empty() ? "" : ", ") + convention_word(d);
+    return out;
+  }
+  for (const DirectionWord& w : kWorldWords) {
     if (!out.empty()) out += ", ";
     out += w.word;
   }
@@ -64,14 +65,33 @@ FrameAxes world_enu() {
 FrameAxes world_ned() {
   return {{"north", "east", "down"}, {"N", "E", "D"}};
 }
+FrameAxes body_frame_axes(const VehicleAxes& v) {
+  FrameAxes f;
+  for (std::size_t i = 0; i < 3; ++i) f.directions[i] = convention_word(v.axes[i]);
+  return f;
+}
+
+Expected<VehicleAxes> body_vehicle_axes(const FrameAxes& body) {
+  VehicleAxes v;
+  for (std::size_t i = 0; i < 3; ++i) {
+    const auto d = parse_convention_word(body.directions[i]);
+    if (!d) {
+      return Error{"body axis " + std::string(1, static_cast<char>('x' + i)) + " ('" + body.directions[i] +
+                   "') is not one of " + word_list(FrameRole::Body)};
+    }
+    v.axes[i] = *d;
+  }
+  return parse_vehicle_axes(v.code());  // refuses two axes on one line and a left-handed frame
+}
+
 FrameAxes body_flu() {
-  return {{"forward", "left", "up"}, {"x", "y", "z"}};
+  return body_frame_axes(VehicleAxes{{BodyDirection::Forward, BodyDirection::Left, BodyDirection::Up}});
 }
 FrameAxes body_frd() {
-  return {{"forward", "right", "down"}, {"x", "y", "z"}};
+  return body_frame_axes(VehicleAxes{{BodyDirection::Forward, BodyDirection::Right, BodyDirection::Down}});
 }
 FrameAxes body_camera_rdf() {
-  return {{"right", "down", "forward"}, {"x", "y", "z"}};
+  return body_frame_axes(VehicleAxes{{BodyDirection::Right, BodyDirection::Down, BodyDirection::Forward}});
 }
 
 std::string frame_preset_name(const FrameAxes& f, FrameRole role) {
@@ -101,15 +121,23 @@ Expected<FrameAxes> frame_preset(std::string_view name, FrameRole role) {
 
 Expected<Eigen::Vector3d> direction_vector(std::string_view word, FrameRole role) {
   const std::string w = lower(word);
-  for (const DirectionWord& d : role == FrameRole::World ? kWorldWords : kBodyWords) {
-    if (w == d.word) return Eigen::Vector3d(d.x, d.y, d.z);
+  if (role == FrameRole::Body) {
+    if (const auto d = parse_convention_word(w)) return flu_vector(*d);
+  } else {
+    for (const DirectionWord& d : kWorldWords) {
+      if (w == d.word) return Eigen::Vector3d(d.x, d.y, d.z);
+    }
   }
   return Error{"'" + std::string(word) + "' is not a " + (role == FrameRole::World ? "world" : "body") +
                " direction: use one of " + word_list(role)};
 }
 
 std::string direction_word(const Eigen::Vector3d& unit_axis, FrameRole role) {
-  for (const DirectionWord& d : role == FrameRole::World ? kWorldWords : kBodyWords) {
+  if (role == FrameRole::Body) {
+    const auto d = direction_of_flu(unit_axis);
+    return d ? convention_word(*d) : "";
+  }
+  for (const DirectionWord& d : kWorldWords) {
     if ((unit_axis - Eigen::Vector3d(d.x, d.y, d.z)).norm() < 1e-6) return d.word;
   }
   return "";

@@ -14,17 +14,40 @@ namespace {
 
 constexpr double kDeg = 180.0 / M_PI;
 
-// Directions as vectors in a reference forward-right-down space.
-Eigen::Vector3d frd_vector(BodyDirection d) {
-  switch (d) {
-    case BodyDirection::Forward: return Eigen::Vector3d(1, 0, 0);
-    case BodyDirection::Aft: return Eigen::Vector3d(-1, 0, 0);
-    case BodyDirection::Right: return Eigen::Vector3d(0, 1, 0);
-    case BodyDirection::Left: return Eigen::Vector3d(0, -1, 0);
-    case BodyDirection::Up: return Eigen::Vector3d(0, 0, -1);
-    case BodyDirection::Down: return Eigen::Vector3d(0, 0, 1);
+// The one table of body directions: letter, sentence word, convention-file word, and the
+// unit vector in the FLU reference (x forward, y left, z up; common practice, ISO 8855).
+struct DirectionRow {
+  BodyDirection direction;
+  char letter;
+  const char* word;
+  const char* convention_word;
+  double x, y, z;
+};
+constexpr DirectionRow kDirections[] = {
+    {BodyDirection::Forward, 'F', "forward", "forward", 1, 0, 0},
+    {BodyDirection::Aft, 'B', "aft", "back", -1, 0, 0},
+    {BodyDirection::Left, 'L', "left", "left", 0, 1, 0},
+    {BodyDirection::Right, 'R', "right", "right", 0, -1, 0},
+    {BodyDirection::Up, 'U', "up", "up", 0, 0, 1},
+    {BodyDirection::Down, 'D', "down", "down", 0, 0, -1},
+};
+
+constexpr std::array<BodyDirection, 6> kAllDirections{BodyDirection::Forward, BodyDirection::Aft,
+                                                      BodyDirection::Left,    BodyDirection::Right,
+                                                      BodyDirection::Up,      BodyDirection::Down};
+
+const DirectionRow& row_of(BodyDirection d) {
+  for (const DirectionRow& r : kDirections) {
+    if (r.direction == d) return r;
   }
-  return Eigen::Vector3d::Zero();
+  return kDirections[0];  // cannot happen: the table names every direction
+}
+
+// Directions as vectors in a forward-right-down space (the FLU vector with y and z flipped),
+// in which the turn senses below are worked out.
+Eigen::Vector3d frd_vector(BodyDirection d) {
+  const Eigen::Vector3d flu = flu_vector(d);
+  return Eigen::Vector3d(flu.x(), -flu.y(), -flu.z());
 }
 
 BodyDirection direction_of_frd(const Eigen::Vector3d& v) {
@@ -37,15 +60,7 @@ BodyDirection direction_of_frd(const Eigen::Vector3d& v) {
 }
 
 char letter(BodyDirection d) {
-  switch (d) {
-    case BodyDirection::Forward: return 'F';
-    case BodyDirection::Aft: return 'B';
-    case BodyDirection::Right: return 'R';
-    case BodyDirection::Left: return 'L';
-    case BodyDirection::Up: return 'U';
-    case BodyDirection::Down: return 'D';
-  }
-  return '?';
+  return row_of(d).letter;
 }
 
 std::string fmt(double v, int precision) {
@@ -60,15 +75,40 @@ const char* kAxisLetters[3] = {"x", "y", "z"};
 }  // namespace
 
 std::string direction_word(BodyDirection d) {
-  switch (d) {
-    case BodyDirection::Forward: return "forward";
-    case BodyDirection::Aft: return "aft";
-    case BodyDirection::Right: return "right";
-    case BodyDirection::Left: return "left";
-    case BodyDirection::Up: return "up";
-    case BodyDirection::Down: return "down";
+  return row_of(d).word;
+}
+
+const std::array<BodyDirection, 6>& body_directions() {
+  return kAllDirections;
+}
+
+std::string convention_word(BodyDirection d) {
+  return row_of(d).convention_word;
+}
+
+std::optional<BodyDirection> parse_convention_word(std::string_view word) {
+  std::string w(word);
+  for (char& ch : w) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  for (const DirectionRow& r : kDirections) {
+    if (w == r.convention_word) return r.direction;
   }
-  return "?";
+  return std::nullopt;
+}
+
+char direction_letter(BodyDirection d) {
+  return row_of(d).letter;
+}
+
+Eigen::Vector3d flu_vector(BodyDirection d) {
+  const DirectionRow& r = row_of(d);
+  return Eigen::Vector3d(r.x, r.y, r.z);
+}
+
+std::optional<BodyDirection> direction_of_flu(const Eigen::Vector3d& unit, double tolerance) {
+  for (const DirectionRow& r : kDirections) {
+    if ((unit - Eigen::Vector3d(r.x, r.y, r.z)).norm() < tolerance) return r.direction;
+  }
+  return std::nullopt;
 }
 
 std::string VehicleAxes::code() const {

@@ -2,6 +2,9 @@
 #include "attiscope/core/vehicle_axes.hpp"
 
 #include <cmath>
+#include <map>
+
+#include "attiscope/core/convention.hpp"
 
 #include "support/check.hpp"
 
@@ -62,6 +65,61 @@ TEST(VehicleAxesTest, AxisOfDirection) {
   EXPECT_EQ(flu.axis_of(BodyDirection::Down), std::make_pair(2, -1.0));
   EXPECT_EQ(flu.axis_of(BodyDirection::Right), std::make_pair(1, -1.0));
   EXPECT_EQ(flu.word_for(Eigen::Vector3d(0, -1, 0)), "right");
+}
+
+TEST(VehicleAxesTest, HouseBodyFramesComeFromTheVehicleTable) {
+  // The FLU reference written out by hand: x forward, y left, z up (common practice; ISO 8855).
+  const std::map<char, Eigen::Vector3d> flu{{'F', {1, 0, 0}},  {'B', {-1, 0, 0}}, {'L', {0, 1, 0}},
+                                            {'R', {0, -1, 0}}, {'U', {0, 0, 1}},  {'D', {0, 0, -1}}};
+  int right_handed = 0;
+  for (const auto& [a, va] : flu) {
+    for (const auto& [b, vb] : flu) {
+      for (const auto& [c, vc] : flu) {
+        const std::string code{a, b, c};
+        const auto v = parse_vehicle_axes(code);
+        const bool proper = std::abs(va.cross(vb).dot(vc) - 1.0) < 1e-12;
+        ASSERT_EQ(v.ok(), proper) << code;
+        if (!proper) continue;
+        ++right_handed;
+        const FrameAxes body = body_frame_axes(v.value());
+        const auto back = body_vehicle_axes(body);
+        ASSERT_TRUE(back.ok()) << code << ": " << back.error().describe();
+        EXPECT_EQ(back.value().code(), code);
+        const auto m = reference_R_frame(body, FrameRole::Body);
+        ASSERT_TRUE(m.ok()) << code;
+        EXPECT_TRUE(test::MatrixNear(m.value().col(0), va, 0.0)) << code;
+        EXPECT_TRUE(test::MatrixNear(m.value().col(1), vb, 0.0)) << code;
+        EXPECT_TRUE(test::MatrixNear(m.value().col(2), vc, 0.0)) << code;
+      }
+    }
+  }
+  // The proper rotations of a cube onto itself: 24 (common practice).
+  EXPECT_EQ(right_handed, 24);
+  // The named presets are the vehicle codes, in the convention file's words.
+  EXPECT_EQ(body_frd().directions, (std::array<std::string, 3>{"forward", "right", "down"}));
+  EXPECT_EQ(body_flu().directions, (std::array<std::string, 3>{"forward", "left", "up"}));
+  EXPECT_EQ(body_camera_rdf().directions, (std::array<std::string, 3>{"right", "down", "forward"}));
+  EXPECT_EQ(body_vehicle_axes(body_frd()).value().code(), "FRD");
+  // A file says "back", a sentence "aft": one direction.
+  EXPECT_EQ(parse_convention_word("Back"), BodyDirection::Aft);
+  EXPECT_EQ(direction_word(BodyDirection::Aft), "aft");
+  EXPECT_FALSE(parse_convention_word("aft").has_value());
+  EXPECT_FALSE(body_vehicle_axes(FrameAxes{{"forward", "sideways", "down"}, {"x", "y", "z"}}).ok());
+  EXPECT_FALSE(body_vehicle_axes(FrameAxes{{"forward", "left", "down"}, {"x", "y", "z"}}).ok());  // mirror
+}
+
+TEST(VehicleAxesTest, HouseSentencesAgreeWithVehicleTurnSenses) {
+  // Common practice (ISO 1151, from memory): in FRD a positive turn about y raises the nose,
+  // about z turns it right. The house sentence and the vehicle words say the same.
+  HouseConvention c;
+  c.world = world_ned();
+  c.body = body_frd();
+  const auto sentences = positive_direction_sentences(c);  // ZYX: yaw about z, pitch about y
+  const VehicleAxes frd = body_vehicle_axes(c.body).value();
+  EXPECT_EQ(frd.turn_sense(1, 1.0), "nose up");
+  EXPECT_NE(sentences[1].find("raises the nose"), std::string::npos) << sentences[1];
+  EXPECT_EQ(frd.turn_sense(2, 1.0), "nose right");
+  EXPECT_NE(sentences[0].find("turns the nose right"), std::string::npos) << sentences[0];
 }
 
 }  // namespace

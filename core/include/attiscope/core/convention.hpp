@@ -24,6 +24,7 @@
 #include "attiscope/core/quaternion.hpp"
 #include "attiscope/core/rotation.hpp"
 #include "attiscope/core/text.hpp"
+#include "attiscope/core/vehicle_axes.hpp"
 
 namespace attiscope {
 
@@ -47,6 +48,13 @@ FrameAxes world_ned();
 FrameAxes body_flu();
 FrameAxes body_frd();
 FrameAxes body_camera_rdf();
+
+/// A body frame from vehicle axes (names x, y, z), in the convention file's words: FRD gives
+/// {"forward", "right", "down"}. The body words and vectors are vehicle_axes.hpp's.
+FrameAxes body_frame_axes(const VehicleAxes& v);
+/// The vehicle axes of a house body frame (the Mount check takes the house's body as the
+/// vehicle's). Error when an axis is not a body word, or the frame is not right-handed.
+Expected<VehicleAxes> body_vehicle_axes(const FrameAxes& body);
 
 /// "ENU", "NED" (world) or "FLU", "FRD", "RDF" (body) when the directions are one of the
 /// named frames, else "custom".

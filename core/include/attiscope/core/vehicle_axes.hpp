@@ -6,10 +6,16 @@
 // A turn about the forward/aft axis is a roll, about right/left a pitch, about up/down a
 // yaw. The sense of a turn is said by what it does to the nose (pitch, yaw) or to the right
 // side (roll): a positive turn about FRD's y puts the nose up (right-hand rule).
+//
+// This header is the one source of a body's direction words and vectors: a house
+// convention's body frame (convention.hpp, "forward", "back", ... against the FLU reference)
+// reads its words and vectors from the table behind BodyDirection, and converts to and from
+// VehicleAxes (body_frame_axes / body_vehicle_axes there).
 #pragma once
 
 #include <Eigen/Core>
 #include <array>
+#include <optional>
 #include <string>
 #include <string_view>
 
@@ -21,6 +27,22 @@ enum class BodyDirection { Forward, Aft, Right, Left, Up, Down };
 
 /// "forward", "aft", "right", "left", "up", "down".
 std::string direction_word(BodyDirection d);
+
+/// The six directions in the order a house convention lists them: forward, back, left,
+/// right, up, down.
+const std::array<BodyDirection, 6>& body_directions();
+/// The word a house convention file writes for a direction: "forward", "back", "left",
+/// "right", "up", "down" (the file says "back" where a sentence says "aft").
+std::string convention_word(BodyDirection d);
+/// A house convention file's word (case-insensitive), or nullopt.
+std::optional<BodyDirection> parse_convention_word(std::string_view word);
+/// The letter of a direction in a vehicle code: F B R L U D.
+char direction_letter(BodyDirection d);
+/// The direction as a unit vector of the FLU reference (x forward, y left, z up), the
+/// reference a house convention writes its body frame against.
+Eigen::Vector3d flu_vector(BodyDirection d);
+/// The direction of a unit FLU vector along one of the six directions, or nullopt.
+std::optional<BodyDirection> direction_of_flu(const Eigen::Vector3d& unit, double tolerance = 1e-6);
 
 /// Where a vehicle's x, y and z axes point, in words.
 struct VehicleAxes {
