@@ -52,8 +52,15 @@ const char* kMountHelp =
     "                     setup file (TOML); options given here override it\n"
     "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
     "  --sheet FILE       write the text check sheet (inputs, result, tolerance, date, caution)\n"
-    "  --sheet-png FILE   write the check sheet's picture: the sensor at the nominal mount (ghost)\n"
-    "                     and the measured one (solid) in the vehicle's axes (needs the renderer)\n"
+    "  --sheet-png FILE   write the check sheet's picture: the vehicle model with the sensor at the\n"
+    "                     nominal mount (ghost) and the measured one (solid), in four views named by\n"
+    "                     the vehicle (from behind, from the left, from above, from ahead, right and\n"
+    "                     above), with the setup's frame chain when it has one (needs the renderer)\n"
+    "  --vehicle-model NAME  the vehicle drawn on the picture: aircraft (default), rover,\n"
+    "                     quadcopter, box\n"
+    "  --sensor-names \"A B C\"  the sensor's own names for its x, y, z axes on the picture\n"
+    "                     (default \"sx sy sz\")\n"
+    "  --select FRAME     the chain frame highlighted on the picture\n"
     "  --list-aligned     print the 24 axis-aligned mounts and their names\n"
     "  --relative \"A B\"   with --setup: frame A relative to frame B from the file's frame chain\n"
     "                     (A_R_B maps B coordinates into A, and B's origin in A, metres)\n"
@@ -177,6 +184,9 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
                                {"--save", true},
                                {"--sheet", true},
                                {"--sheet-png", true},
+                               {"--vehicle-model", true},
+                               {"--sensor-names", true},
+                               {"--select", true},
                                {"--relative", true},
                                {"--list-aligned", false}},
                               &o)) {
@@ -294,12 +304,35 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
   if (auto path = o.last("--sheet-png")) {
     if (!r.nominal || !r.measured) return bad(io, "--sheet-png needs a nominal and a measured mount");
 #ifdef ATTISCOPE_HAVE_RENDER
+    render::MountPictureOptions picture;
+    if (auto m = o.last("--vehicle-model")) {
+      auto kind = render::parse_model_kind(*m);
+      if (!kind)
+        return bad(io, "--vehicle-model: unknown model '" + *m + "'; use one of " + render::model_list());
+      picture.vehicle_model = *kind;
+    }
+    if (auto n = o.last("--sensor-names")) {
+      std::istringstream words(*n);
+      std::string extra;
+      if (!(words >> picture.sensor_axis_names[0] >> picture.sensor_axis_names[1] >>
+            picture.sensor_axis_names[2]) ||
+          (words >> extra))
+        return bad(io, "--sensor-names needs three names, for the sensor's x, y and z (e.g. \"X Y Z\")");
+    }
+    if (!setup.chain.frames().empty()) picture.chain = setup.chain;
+    if (auto sel = o.last("--select")) {
+      if (!picture.chain) return bad(io, "--select needs a --setup file with a frame chain");
+      if (!setup.chain.has_frame(*sel))
+        return bad(io, "--select: no frame called '" + *sel + "' in the setup");
+      picture.chain_selected = *sel;
+    }
+    picture.notes = mount_picture_notes(r, 4, utc_date_time());
     auto context = render::HeadlessContext::create();
     if (!context) return bad(io, "--sheet-png: " + context.error().describe());
     auto renderer = render::SceneRenderer::create();
     if (!renderer) return bad(io, "--sheet-png: " + renderer.error().describe());
     auto written = render::write_mount_picture(*renderer.value(), *path, r.nominal->vehicle_R_sensor,
-                                               r.measured->vehicle_R_sensor, r.names);
+                                               r.measured->vehicle_R_sensor, r.names, picture);
     if (!written) return bad(io, "--sheet-png: " + written.error().describe());
 #else
     return bad(io, "--sheet-png: this build has no renderer (configure with ATTISCOPE_BUILD_GUI=ON)");

@@ -5,11 +5,13 @@
 #include <sstream>
 
 #include "attiscope/core/euler.hpp"
+#include "attiscope/core/mount_setup.hpp"
 #include "attiscope/core/pose_text.hpp"
 #include "cli/cli.hpp"
 #include "cli/pose_input.hpp"
 
 #ifdef ATTISCOPE_HAVE_RENDER
+#include "attiscope/render/chain_overlay.hpp"
 #include "attiscope/render/headless.hpp"
 #include "attiscope/render/scene_renderer.hpp"
 #endif
@@ -37,7 +39,8 @@ std::string render_help() {
 #endif
   return "usage: attiscope render [TEXT] --out F.png [--size WxH] [--model NAME] [--view NAME]\n"
          "                        [--rings] [--ghost TEXT] [--world ENU|NED|XYZ] [--body FLU|FRD|RDF]\n"
-         "                        [--model-file F.obj|F.stl] [--as READING] [options]\n"
+         "                        [--model-file F.obj|F.stl] [--chain SETUP.toml [--select FRAME]\n"
+         "                        [--chain-in FRAME]] [--as READING] [options]\n"
          "\n"
          "Draws the body in the pose read from TEXT (or standard input) and writes a PNG, with no\n"
          "display needed (EGL surfaceless; software rendering when there is no GPU).\n"
@@ -55,6 +58,10 @@ std::string render_help() {
          "  --world NAME       world frame: ENU (z up, default), NED (z down), XYZ (z up)\n"
          "  --body NAME        body frame the model is placed in: FLU (default), FRD, RDF (camera)\n"
          "  --no-labels        no axis letters\n"
+         "  --chain FILE       draw the frame chain of a mount setup file (its frames and [[link]]s):\n"
+         "                     one small triad per frame, named, in a row beside the body\n"
+         "  --select FRAME     with --chain: highlight this frame (its axes lettered x, y, z)\n"
+         "  --chain-in FRAME   with --chain: the frame whose axes are the world's (default the root)\n"
          "\n"
          "Examples:\n"
          "  attiscope render --as euler --euler ZYX \"30 20 10\" --out pose.png\n"
@@ -99,10 +106,11 @@ bool parse_size(const std::string& s, int* w, int* h) {
 
 int run_render(const std::vector<std::string>& args, Streams io) {
   CommonOptions o;
-  const std::vector<OptionSpec> own = {{"--out", true},       {"--size", true},   {"--model", true},
-                                       {"--view", true},      {"--rings", false}, {"--ghost", true},
-                                       {"--world", true},     {"--body", true},   {"--model-file", true},
-                                       {"--no-labels", false}};
+  const std::vector<OptionSpec> own = {{"--out", true},        {"--size", true},   {"--model", true},
+                                       {"--view", true},       {"--rings", false}, {"--ghost", true},
+                                       {"--world", true},      {"--body", true},   {"--model-file", true},
+                                       {"--no-labels", false}, {"--chain", true},  {"--select", true},
+                                       {"--chain-in", true}};
   if (auto err = parse_common(args, own, &o)) {
     io.err << "attiscope render: " << *err << "\n";
     return kExitBadInput;
@@ -194,6 +202,32 @@ int run_render(const std::vector<std::string>& args, Streams io) {
   if (o.has("--rings")) {
     scene.rings = to_euler(scene.world_R_body, o.euler);
     scene.camera.distance = kRingsViewDistance;
+  }
+  if ((o.has("--select") || o.has("--chain-in")) && !o.has("--chain")) {
+    io.err << "attiscope render: --select and --chain-in need --chain SETUP.toml\n";
+    return kExitBadInput;
+  }
+  if (auto path = o.last("--chain")) {
+    std::vector<std::string> warnings;
+    auto setup = load_mount_setup(*path, &warnings);
+    if (!setup) {
+      io.err << "attiscope render: --chain: " << *path << ": " << setup.error().describe() << "\n";
+      return kExitBadInput;
+    }
+    for (const std::string& w : warnings)
+      io.err << "attiscope render: warning: " << *path << ": " << w << "\n";
+    if (setup->chain.frames().empty()) {
+      io.err << "attiscope render: --chain: " << *path << " has no frames or [[link]] tables\n";
+      return kExitBadInput;
+    }
+    auto marks = render::scene_chain_marks(setup->chain, scene.world, o.last("--select").value_or(""),
+                                           o.last("--chain-in").value_or(""));
+    if (!marks) {
+      io.err << "attiscope render: --chain: " << marks.error().describe() << "\n";
+      return kExitBadInput;
+    }
+    scene.chain = marks.value();
+    scene.camera = render::chain_framing(scene, scene.camera.distance);
   }
 
   auto context = render::HeadlessContext::create();

@@ -6,6 +6,8 @@
 #include <array>
 #include <string>
 
+#include "attiscope/core/frame_chain.hpp"
+
 namespace attiscope::gui {
 
 struct ComparePanelState {
@@ -29,6 +31,12 @@ struct MountPanelState {
   std::string axes_code = "FRD";
   std::string sheet_base = "mount-check";  ///< export writes BASE.png and BASE.txt
   std::string message;                     ///< the last export's outcome
+  // The frame chain (world -> vehicle -> mount plate -> sensor ...), from a mount setup file.
+  std::string setup_path;      ///< the setup file box
+  FrameChain chain;            ///< the loaded setup's frames and links (empty: none)
+  std::string chain_message;   ///< the last load's outcome or error (with line and column)
+  std::string selected_frame;  ///< drawn highlighted in the Scene; its pose is shown in the panel
+  bool show_chain = true;      ///< draw every frame of the chain in the Scene
 };
 
 }  // namespace attiscope::gui

@@ -9,14 +9,19 @@
 #include <ctime>
 
 #include "attiscope/core/atomic_file.hpp"
+#include "attiscope/core/chain_layout.hpp"
 #include "attiscope/core/mount.hpp"
 #include "attiscope/core/mount_report.hpp"
+#include "attiscope/core/mount_setup.hpp"
 #include "attiscope/core/wahba.hpp"
+#include "gui/chain_view.hpp"
 #include "gui/text_field.hpp"
 #include "gui/ui.hpp"
 
 #ifdef ATTISCOPE_HAS_RENDER
+#include "attiscope/render/chain_overlay.hpp"
 #include "attiscope/render/mount_picture.hpp"
+#include "gui/views.hpp"
 #endif
 
 namespace attiscope::gui {
@@ -174,8 +179,74 @@ void settings_inputs(Ui& ui) {
   record_widget(ui, "mount.axes");
 }
 
+/// Loads a mount setup's frame chain, vehicle axes and tolerance into the panel; on an error
+/// the panel keeps what it had and says why (line and column).
+void load_setup(Ui& ui) {
+  MountPanelState& st = ui.mount;
+  std::vector<std::string> warnings;
+  auto setup = load_mount_setup(st.setup_path, &warnings);
+  if (!setup) {
+    st.chain_message = st.setup_path + ": " + setup.error().describe();
+    return;
+  }
+  st.chain = setup->chain;
+  st.axes_code = setup->vehicle_axes.code();
+  st.tolerance_deg = static_cast<float>(setup->tolerance_deg);
+  st.selected_frame = st.chain.frames().empty() ? "" : st.chain.frames().back();
+  st.chain_message = "loaded " + std::to_string(st.chain.frames().size()) + " frames from " + st.setup_path;
+  for (const std::string& w : warnings) st.chain_message += "; warning: " + w;
+#ifdef ATTISCOPE_HAS_RENDER
+  // Frame the body and the chain once, so every frame is in view (the person may zoom in).
+  render::SceneState probe =
+      scene_state(ui, std::max(ui.scene_viewport.width, 1), std::max(ui.scene_viewport.height, 1));
+  apply_chain_overlay(ui, &probe);
+  view_state().camera = render::chain_framing(probe, kSceneViewDistance);
+#endif
+}
+
+/// The frame chain: load a setup file, pick a frame (highlighted in the Scene), read its pose
+/// relative to its parent and to the chain's root.
+void chain_inputs(Ui& ui) {
+  MountPanelState& st = ui.mount;
+  ImGui::TextUnformatted("Frame chain (from a mount setup file):");
+  ImGui::SetNextItemWidth(-5.0f * ImGui::GetFontSize());
+  text_field("##setup_path", st.setup_path, 1024, false);
+  record_widget(ui, "mount.setup_path");
+  ImGui::SameLine();
+  if (ImGui::SmallButton("Load setup")) load_setup(ui);
+  record_widget(ui, "mount.load_setup");
+  if (!st.chain_message.empty()) ImGui::TextWrapped("%s", st.chain_message.c_str());
+  if (st.chain.frames().empty()) return;
+  ImGui::Checkbox("show every frame in the scene", &st.show_chain);
+  record_widget(ui, "mount.show_chain");
+  const auto layout = layout_frame_chain(st.chain);
+  if (!layout) return;
+  for (const ChainFrameMark& m : layout->marks) {
+    ImGui::Indent(static_cast<float>(1 + m.depth) * ImGui::GetFontSize());
+    if (ImGui::Selectable(m.name.c_str(), m.name == st.selected_frame)) st.selected_frame = m.name;
+    ImGui::Unindent(static_cast<float>(1 + m.depth) * ImGui::GetFontSize());
+    record_widget(ui, "mount.frame." + m.name);
+  }
+  for (const std::string& f : layout->unconnected) ImGui::TextDisabled("  %s (not linked)", f.c_str());
+  if (!st.chain.has_frame(st.selected_frame)) return;
+  const int p = ui.doc.convention().house.precision;
+  auto show = [&](const std::string& a) {
+    auto t = st.chain.relative(a, st.selected_frame);
+    if (!t) return;
+    const auto q = t->rotation.quaternion();
+    ImGui::TextWrapped("%s_R_%s  q (w x y z) %s %s %s %s;  origin (%s, %s, %s) m", a.c_str(),
+                       st.selected_frame.c_str(), num(q.w(), p).c_str(), num(q.x(), p).c_str(),
+                       num(q.y(), p).c_str(), num(q.z(), p).c_str(), num(t->translation.x(), p).c_str(),
+                       num(t->translation.y(), p).c_str(), num(t->translation.z(), p).c_str());
+  };
+  if (auto parent = st.chain.parent_of(st.selected_frame)) show(*parent);
+  const std::string root = st.chain.path_from_root(st.selected_frame).front();
+  if (root != st.selected_frame && root != st.chain.parent_of(st.selected_frame).value_or("")) show(root);
+}
+
 /// Writes BASE.txt (mount_report_text with the date) and, with the renderer, BASE.png.
-std::string export_sheet(const MountResult& r, const std::string& base) {
+std::string export_sheet(const MountResult& r, const MountPanelState& st, const std::string& base) {
+  (void)st;  // only the picture uses it
   std::string said;
   const Expected<bool> written = write_file_atomically(base + ".txt", mount_report_text(r, 6, utc_now()));
   said = written.ok() ? "wrote " + base + ".txt" : written.error().describe();
@@ -183,8 +254,13 @@ std::string export_sheet(const MountResult& r, const std::string& base) {
   if (r.nominal && r.measured) {
     auto renderer = render::SceneRenderer::create();
     if (!renderer) return said + "; no picture: " + renderer.error().describe();
-    const auto png = render::write_mount_picture(
-        *renderer.value(), base + ".png", r.nominal->vehicle_R_sensor, r.measured->vehicle_R_sensor, r.names);
+    render::MountPictureOptions picture;
+    if (!st.chain.frames().empty()) picture.chain = st.chain;
+    if (st.chain.has_frame(st.selected_frame)) picture.chain_selected = st.selected_frame;
+    picture.notes = mount_picture_notes(r, 4, utc_now());
+    const auto png =
+        render::write_mount_picture(*renderer.value(), base + ".png", r.nominal->vehicle_R_sensor,
+                                    r.measured->vehicle_R_sensor, r.names, picture);
     said += png ? " and " + base + ".png" : "; no picture: " + png.error().describe();
   } else {
     said += "; no picture: it needs both a nominal and a measured mount";
@@ -263,6 +339,8 @@ void draw_mount_panel(Ui& ui) {
   measured_inputs(ui);
   ImGui::Separator();
   settings_inputs(ui);
+  ImGui::Separator();
+  chain_inputs(ui);
   ImGui::EndChild();
 
   ImGui::SameLine();
@@ -290,7 +368,7 @@ void draw_mount_panel(Ui& ui) {
   record_widget(ui, "mount.sheet_base");
   ImGui::SameLine();
   if (ImGui::SmallButton("Export check sheet")) {
-    st.message = result ? export_sheet(*result, st.sheet_base) : "nothing to export: no result";
+    st.message = result ? export_sheet(*result, st, st.sheet_base) : "nothing to export: no result";
     ui.status = st.message;
   }
   record_widget(ui, "mount.export");
@@ -323,6 +401,7 @@ void draw_mount_panel(Ui& ui) {
   j["problems"] = problems;
   j["message"] = st.message;
   j["result"] = result ? mount_json(*result) : nlohmann::json();
+  j["chain"] = chain_view_dump(ui);
 }
 
 }  // namespace attiscope::gui

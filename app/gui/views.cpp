@@ -5,6 +5,7 @@
 // that is not real.
 #include "gui/views.hpp"
 
+#include "gui/chain_view.hpp"
 #include "gui/teaching.hpp"
 
 #ifdef ATTISCOPE_HAS_RENDER
@@ -122,6 +123,7 @@ void views_draw(const Ui& ui) {
   if (!ui.scene_viewport.empty()) {
     render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
     apply_teaching_overlay(ui, &st);
+    apply_chain_overlay(ui, &st);
     g_renderer->draw(st, region_of(ui.scene_viewport, fb_h));
   }
   if (!ui.gimbal_viewport.empty()) {

@@ -193,4 +193,19 @@ std::string mount_report_text(const MountResult& r, int p, const std::string& da
   return out.str();
 }
 
+std::vector<std::string> mount_picture_notes(const MountResult& r, int p, const std::string& date) {
+  std::vector<std::string> out;
+  if (r.check) {
+    const MountCheck& c = *r.check;
+    out.push_back(std::string(c.within_tolerance ? "PASS" : "FAIL") + ": error " +
+                  fmt(c.error_rad * kDeg, p) + " degrees, tolerance " + fmt(c.tolerance_rad * kDeg, p) +
+                  " degrees. " + c.error_words + ".");
+    if (!c.within_tolerance) out.push_back(c.verdict_text);
+  } else if (r.refused()) {
+    out.push_back("NO ANSWER: " + r.solve->observability.sentence);
+  }
+  if (!date.empty()) out.push_back("Checked " + date + "; inputs and details in the text sheet.");
+  return out;
+}
+
 }  // namespace attiscope

@@ -9,6 +9,7 @@
 #include "attiscope/core/convention_card.hpp"
 #include "attiscope/render/scene_renderer.hpp"
 #include "font.hpp"
+#include "image_text.hpp"
 
 namespace attiscope::render {
 
@@ -69,30 +70,7 @@ std::vector<std::string> wrap(const std::string& text, std::size_t width) {
 /// Draws one line of text with its baseline at y.
 void draw_text(Image* img, const detail::BakedFont& font, const std::string& text, float x, float y,
                float px) {
-  const float s = px / font.pixel_height;
-  float pen = x;
-  for (char ch : text) {
-    if (ch < 32 || ch >= 127) continue;
-    const detail::Glyph& g = font.glyphs[static_cast<std::size_t>(ch - 32)];
-    const int w = static_cast<int>(std::ceil((g.x1 - g.x0) * s)),
-              h = static_cast<int>(std::ceil((g.y1 - g.y0) * s));
-    for (int j = 0; j < h; ++j) {
-      for (int i = 0; i < w; ++i) {
-        const int tx = static_cast<int>(pen + g.xoff * s) + i, ty = static_cast<int>(y + g.yoff * s) + j;
-        if (tx < 0 || ty < 0 || tx >= img->width || ty >= img->height) continue;
-        const int ax = std::min(font.width - 1, static_cast<int>(g.x0 + (static_cast<float>(i) + 0.5f) / s));
-        const int ay = std::min(font.height - 1, static_cast<int>(g.y0 + (static_cast<float>(j) + 0.5f) / s));
-        const float a = font.coverage[static_cast<std::size_t>(ay) * static_cast<std::size_t>(font.width) +
-                                      static_cast<std::size_t>(ax)] /
-                        255.0f;
-        std::uint8_t* p = &img->rgba[(static_cast<std::size_t>(ty) * static_cast<std::size_t>(img->width) +
-                                      static_cast<std::size_t>(tx)) *
-                                     4];
-        for (int k = 0; k < 3; ++k) p[k] = static_cast<std::uint8_t>(p[k] * (1.0f - a) + kInk[k] * a);
-      }
-    }
-    pen += g.advance * s;
-  }
+  detail::draw_image_text(img, font, text, x, y, px, kInk);
 }
 
 }  // namespace

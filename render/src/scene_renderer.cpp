@@ -10,6 +10,7 @@
 #include <Eigen/Geometry>
 
 #include "attiscope/render/gimbal.hpp"
+#include "chain_overlay.hpp"
 #include "font.hpp"
 #include "gl.hpp"
 #include "mesh_builder.hpp"
@@ -207,11 +208,11 @@ struct PixelBox {
 /// box, triads by their tips, rings by points around their circles), padded for tube and
 /// arrowhead radii and clipped to the view. nullopt when nothing is on screen.
 std::optional<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::AlignedBox3d& model_box, int w,
-                                          int h) {
+                                          int h, const std::vector<Eigen::Vector3d>& extra_points) {
   constexpr double kPadPx = 3.0;
   constexpr double kPadUnits = 0.12;  // arrowheads, ring tubes and pivots stick out this far
   constexpr int kRingSamples = 24;
-  std::vector<Eigen::Vector3d> points;
+  std::vector<Eigen::Vector3d> points = extra_points;
   auto add_box = [&](const Eigen::Matrix3d& world_R_mesh) {
     for (int c = 0; c < 8; ++c) {
       points.push_back(world_R_mesh * model_box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
@@ -523,7 +524,11 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     for (int a = 0; a < 3; ++a)
       draw_arrow(Eigen::Vector3d::Zero(), r.col(a), kBodyTriadLength, 1.0, axis_colors[a], no_glow);
   }
-  if (!st.faded_triads.empty() || !st.turns.empty()) {  // teaching overlays (overlays.cpp)
+  for (const PlacedModel& p : st.props) {  // extra solid models (a mount check's vehicle)
+    draw_mesh(model_gpu(ModelChoice{p.kind, false}), p.world_R_model, p.offset, no_tint, 1.0f, no_glow);
+  }
+  // Teaching overlays (overlays.cpp) and the frame chain (chain_overlay.cpp).
+  if (!st.faded_triads.empty() || !st.turns.empty() || !st.chain.empty()) {
     detail::OverlayPainter paint;
     paint.arrow = [&](const Eigen::Vector3d& from, const Eigen::Vector3d& dir, double length,
                       double thickness, const Eigen::Vector3f& color) {
@@ -534,10 +539,12 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
       Eigen::Matrix3d m = frame_along(b - a);
       m.col(0) *= radius;
       m.col(1) *= radius;
-      m.col(2) *= (b - a).norm();
-      draw_mesh(rod, m, a, Eigen::Vector4f(color.x(), color.y(), color.z(), 1.0f), 1.0f, no_glow);
+      // The rod mesh runs from z = -1 to 1: centre it between a and b, half the length each way.
+      m.col(2) *= 0.5 * (b - a).norm();
+      draw_mesh(rod, m, 0.5 * (a + b), Eigen::Vector4f(color.x(), color.y(), color.z(), 1.0f), 1.0f, no_glow);
     };
     detail::draw_overlays(st, paint, vec(palette.background), axis_colors, hl);
+    detail::draw_chain(st, paint, axis_colors, hl);
   }
   if (st.rings) {
     const GimbalRings g = gimbal_rings(*st.rings);
@@ -651,6 +658,11 @@ void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
       st, [&](const Eigen::Vector3d& base, const Eigen::Vector3d& tip, const std::string& text) {
         place(base, tip, text, vec(palette.highlight) * 0.6f);
       });
+  detail::chain_labels(st, [&](const Eigen::Vector3d& base, const Eigen::Vector3d& tip,
+                               const std::string& text, bool selected, int axis) {
+    const Eigen::Vector3f ink(0.16f, 0.18f, 0.24f);
+    place(base, tip, text, axis >= 0 ? axis_colors[axis] : (selected ? vec(palette.highlight) * 0.62f : ink));
+  });
   if (st.rings) {
     const GimbalRings g = gimbal_rings(*st.rings);
     const Eigen::Vector3f base = margin_color(g.lock_margin_rad * 180.0 / kPi) * 0.7f;
@@ -704,7 +716,14 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
     // Smooth only the pixels the meshes can cover: the background and the grid are smooth
     // already (the grid's lines are antialiased analytically), and on a software rasteriser
     // every post-processed pixel costs.
-    const auto box = mesh_pixel_bounds(state, s.model_box(state.model), w, h);
+    std::vector<Eigen::Vector3d> extra = chain_points(state);
+    for (const PlacedModel& p : state.props) {
+      const Eigen::AlignedBox3d b = s.model_box(ModelChoice{p.kind, false});
+      for (int c = 0; c < 8; ++c)
+        extra.push_back(p.offset +
+                        p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
+    }
+    const auto box = mesh_pixel_bounds(state, s.model_box(state.model), w, h, extra);
     if (box) {
       const int bx = box->x, by = box->y, bw = box->width, bh = box->height;
       const int bgl_x = region.x + bx, bgl_y = region.framebuffer_height - region.y - by - bh;

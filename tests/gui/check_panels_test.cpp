@@ -204,5 +204,24 @@ TEST_F(CheckPanelsTest, CommandLineSheetPngIsNotBlank) {
   EXPECT_GT(s.luma_stddev, 5.0);
 }
 
+TEST_F(CheckPanelsTest, SetupChainIsDrawnInTheSceneWithTheSelectedFrame) {
+  // The invented demo setup: vehicle -> plate -> imu and vehicle -> camera.
+  const std::string setup = std::string(ATTISCOPE_SOURCE_DIR) + "/assets/mounts/survey-aircraft.toml";
+  ASSERT_EQ(run("frames 2\nclick tab.mount\nframes 2\nclick mount.setup_path\ntype " + setup +
+                "\nclick mount.load_setup\nframes 2\nclick mount.frame.camera\nframes 3\ndump " +
+                path("chain.json") + "\nscreenshot " + path("chain.png") + "\n"),
+            0)
+      << err_;
+  const auto chain = dump("chain.json")["panels"]["mount"]["chain"];
+  EXPECT_EQ(chain["frames"].size(), 4u) << chain.dump(2);
+  EXPECT_EQ(chain["selected"], "camera");
+  EXPECT_TRUE(chain["shown"].get<bool>());
+  ASSERT_EQ(chain["marks"].size(), 4u) << chain.dump(2);
+  int selected = 0;
+  for (const auto& m : chain["marks"]) selected += m["selected"].get<bool>() ? 1 : 0;
+  EXPECT_EQ(selected, 1);
+  EXPECT_GT(picture_stats(path("chain.png")).colours, 50u);
+}
+
 }  // namespace
 }  // namespace attiscope::gui

@@ -59,4 +59,9 @@ nlohmann::json mount_json(const MountResult& r);
 /// check sheet's text). Ends with the caution.
 std::string mount_report_text(const MountResult& r, int precision = 6, const std::string& date = {});
 
+/// The few lines a check-sheet picture prints under its views: the verdict with the error and
+/// the tolerance, the error in vehicle words, and the date when given.
+std::vector<std::string> mount_picture_notes(const MountResult& r, int precision = 4,
+                                             const std::string& date = {});
+
 }  // namespace attiscope

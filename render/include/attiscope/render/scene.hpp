@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "attiscope/core/chain_layout.hpp"
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/rotation.hpp"
 #include "attiscope/render/camera.hpp"
@@ -44,6 +45,13 @@ struct TurnHighlight {
   bool show_axis = true;   ///< draw the highlighted axis rod
 };
 
+/// An extra model drawn solid beside the body (the vehicle under a mount check's sensor).
+struct PlacedModel {
+  ModelKind kind = ModelKind::Box;
+  Eigen::Matrix3d world_R_model = Eigen::Matrix3d::Identity();  ///< may carry a uniform scale
+  Eigen::Vector3d offset = Eigen::Vector3d::Zero();             ///< world position of the model's origin
+};
+
 struct SceneState {
   Rotation world_R_body;                       ///< the pose drawn: v_world = R v_body
   std::optional<Rotation> ghost_world_R_body;  ///< a reference pose, drawn translucent
@@ -62,6 +70,11 @@ struct SceneState {
   /// Teaching overlays (render/src/overlays.cpp); empty: nothing extra is drawn.
   std::vector<FadedTriad> faded_triads;
   std::vector<TurnHighlight> turns;
+  /// The frames of a frame chain, each a small labelled triad (render/chain_overlay.hpp,
+  /// laid out by core/chain_layout.hpp); the marks' display frame is this scene's world.
+  std::vector<ChainFrameMark> chain;
+  /// Extra solid models (drawn with the body, without its triad).
+  std::vector<PlacedModel> props;
   int width_px = 900;
   int height_px = 700;
 };
