@@ -18,6 +18,8 @@ constexpr double kChainSelectedThickness = 1.25;
 /// and this high above its centre.
 constexpr double kChainBehind = 2.5;
 constexpr double kChainHeight = 1.25;
+/// The row's spacing: wide enough that neighbouring names do not run together.
+constexpr double kSceneChainSpacing = 1.1;
 /// A larger triad (scale > 1) gets thicker arrows, up to this factor.
 constexpr double kMaxThicknessScale = 2.2;
 constexpr double kLinkRodRadius = 0.012;
@@ -51,7 +53,7 @@ ChainLayoutOptions scene_chain_options(const WorldFrame& world) {
   o.anchor = -kChainBehind * toward_eye + kChainHeight * up;
   o.along = screen_right;
   o.across = up;
-  o.spacing = kChainSpacing;
+  o.spacing = kSceneChainSpacing;
   return o;
 }
 

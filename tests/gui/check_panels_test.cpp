@@ -207,8 +207,12 @@ TEST_F(CheckPanelsTest, CommandLineSheetPngIsNotBlank) {
 TEST_F(CheckPanelsTest, SetupChainIsDrawnInTheSceneWithTheSelectedFrame) {
   // The invented demo setup: vehicle -> plate -> imu and vehicle -> camera.
   const std::string setup = std::string(ATTISCOPE_SOURCE_DIR) + "/assets/mounts/survey-aircraft.toml";
-  ASSERT_EQ(run("frames 2\nclick tab.mount\nframes 2\nclick mount.setup_path\ntype " + setup +
-                "\nclick mount.load_setup\nframes 2\nclick mount.frame.camera\nframes 3\ndump " +
+  // The chain's inputs sit below the mount inputs: scroll down to them, as a person would.
+  ASSERT_EQ(run("frames 2\nclick tab.mount\nframes 2\nscroll mount.trim -30\nframes 2\nclick "
+                "mount.setup_path\ntype " +
+                setup +
+                "\nframes 1\nclick mount.load_setup\nframes 2\nscroll mount.load_setup -30\nframes 2\nclick "
+                "mount.frame.camera\nframes 3\ndump " +
                 path("chain.json") + "\nscreenshot " + path("chain.png") + "\n"),
             0)
       << err_;
