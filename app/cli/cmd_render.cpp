@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "attiscope/core/euler.hpp"
+#include "attiscope/core/mount.hpp"
 #include "attiscope/core/mount_setup.hpp"
 #include "attiscope/core/pose_text.hpp"
 #include "cli/cli.hpp"
@@ -228,6 +229,7 @@ int run_render(const std::vector<std::string>& args, Streams io) {
     }
     scene.chain = marks.value();
     scene.camera = render::chain_framing(scene, scene.camera.distance);
+    io.err << "attiscope render: note: " << kMountCaution << "\n";
   }
 
   auto context = render::HeadlessContext::create();

@@ -3,10 +3,10 @@
 #include <unistd.h>
 #include <filesystem>
 #include <fstream>
-#include <sstream>
 
 #include "cli/cli.hpp"
 #include "support/check.hpp"
+#include "support/cli_run.hpp"
 
 #ifdef ATTISCOPE_TEST_HAVE_RENDER
 #include "attiscope/render/image.hpp"
@@ -16,21 +16,8 @@
 namespace attiscope::cli {
 namespace {
 
-struct CliRun {
-  int code = 0;
-  std::string out;
-  std::string err;
-};
-
-CliRun run_cli(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  std::istringstream in;
-  CliRun r;
-  r.code = run(args, {out, err, in});
-  r.out = out.str();
-  r.err = err.str();
-  return r;
-}
+using test::CliRun;
+using test::run_cli;
 
 std::string temp_path(const std::string& name) {
   return (std::filesystem::temp_directory_path() /
