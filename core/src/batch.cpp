@@ -157,7 +157,8 @@ Expected<std::size_t> quaternions_to_euler(const QuaternionColumns& world_q_body
     args.out2 = out.a2.data + start;
     args.out3 = third + start;
     args.margin = margin;
-    kernel(args);
+    args.redo_below = kRedoMarginRad;
+    if (kernel(args) == 0) continue;  // no sample at or next to lock, none unusable
     for (std::size_t s = 0; s < len; ++s) {
       if (margin[s] >= kRedoMarginRad) continue;  // also catches NaN
       // At or next to lock, or not a usable quaternion: the single-pose path decides.

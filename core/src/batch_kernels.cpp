@@ -7,17 +7,19 @@
 // from merging sin and cos of one angle into a scalar sincos call, which no loop can
 // vectorise; -ffp-contract=off forbids fused multiply-adds so that the arithmetic is the
 // same as in the single-pose functions. Every branch is written as a select between two
-// computed values so that the loops if-convert. The libm functions are declared with
-// GCC's simd attribute, as glibc's own header does only under -ffast-math.
+// computed values so that the loops if-convert. sin and cos are declared with GCC's simd
+// attribute, as glibc's own header does only under -ffast-math. atan2 is not taken from
+// libmvec: the quaternion -> Euler loops inline their own (atan2_poly below), which on
+// AVX-512 ran about a quarter faster than three libmvec calls per sample, and on the SSE2
+// baseline, where libmvec's 2-wide atan2 gains little, about half again as fast.
 #include "batch_kernels.hpp"
 
-#include <cfloat>
+#include <algorithm>
 #include <cmath>
 
 #if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__)
 #define ATTISCOPE_BATCH_X86 1
 extern "C" {
-double atan2(double, double) noexcept __attribute__((simd("notinbranch")));
 double sin(double) noexcept __attribute__((simd("notinbranch")));
 double cos(double) noexcept __attribute__((simd("notinbranch")));
 }
@@ -41,60 +43,160 @@ ATTISCOPE_INLINE double wrap_one_turn(double t) {
   return t + (t <= -kPi ? kTwoPi : 0.0);
 }
 
-// Quaternion -> Euler: Bernardes & Viollet 2022, as in to_euler (euler.cpp), line by line.
+/// tan(pi/8): above it the argument of the polynomial is reduced through pi/4.
+constexpr double kTanPiOver8 = 0.41421356237309503;
+constexpr double kQuarterPi = 0.25 * M_PI;
+
+/// atan(z) = z + z^3 P(z^2) for |z| <= tan(pi/8): P interpolates (atan(z) - z) / z^3 at the
+/// 11 Chebyshev nodes of s = z^2 in [0, tan^2(pi/8)] (computed with 50-digit arithmetic);
+/// the relative error of the whole atan is about 1.0 x 2^-53 over that range.
+constexpr double kAtanP[11] = {-0.3333333333333333,  0.1999999999999552,   -0.14285714284666542,
+                               0.11111111015256361,  -0.09090904578123903, 0.07692183190826087,
+                               -0.06664511447381948, 0.0585814891280221,   -0.0508544973794026,
+                               0.03923165829558719,  -0.01917688711906226};
+
+/// atan2 in plain arithmetic, so that it inlines into a vectorised loop (no call, nothing
+/// spilled around one) on every instruction set. The range reduction of Cody & Waite
+/// ("Software Manual for the Elementary Functions", 1980) and Cephes' atan: fold (y, x) into
+/// the first octant, t = min / max, and past tan(pi/8) take atan(t) = pi/4 + atan((t - 1) /
+/// (t + 1)), computed as one division (num - den) / (num + den). Quadrant and sign as
+/// std::atan2, including signed zeros. Within 3e-16 rad of std::atan2 (tests/core).
+ATTISCOPE_INLINE double atan2_poly(double y, double x) {
+  const double ax = std::fabs(x);
+  const double ay = std::fabs(y);
+  const bool steep = ay > ax;
+  const double num = steep ? ax : ay;  // num <= den
+  const double den = steep ? ay : ax;
+  const bool reduce = num > kTanPiOver8 * den;
+  const double top = reduce ? num - den : num;
+  const double bottom = reduce ? num + den : den;
+  const double z = bottom > 0.0 ? top / bottom : 0.0;  // atan2(0, 0) = 0 as std::atan2
+  const double s = z * z;
+  // Horner, written out: a loop here would stop the outer loop from vectorising.
+  double poly = kAtanP[10] * s + kAtanP[9];
+  poly = poly * s + kAtanP[8];
+  poly = poly * s + kAtanP[7];
+  poly = poly * s + kAtanP[6];
+  poly = poly * s + kAtanP[5];
+  poly = poly * s + kAtanP[4];
+  poly = poly * s + kAtanP[3];
+  poly = poly * s + kAtanP[2];
+  poly = poly * s + kAtanP[1];
+  poly = poly * s + kAtanP[0];
+  double r = z + z * (s * poly);
+  r = reduce ? r + kQuarterPi : r;                // atan(num / den), [0, pi/4]
+  r = steep ? kHalfPi - r : r;                    // atan(ay / ax), [0, pi/2]
+  r = std::copysign(1.0, x) < 0.0 ? kPi - r : r;  // [0, pi]; x = -0 counts as negative
+  return std::copysign(r, y);
+}
+
+/// Samples per stage of the quaternion -> Euler loop. The atan2 operands of one stage
+/// (six arrays, 12 KB) stay in the first-level cache from one stage to the next.
+constexpr std::size_t kStage = 256;
+
+/// Norms squared inside this range go through the SIMD formula; the products n1 n2 below
+/// neither overflow nor lose digits to underflow there (they only underflow within 1e-50 rad
+/// of lock, where batch.cpp redoes the sample). Outside it the sample is flagged (margin -1)
+/// and batch.cpp hands it to to_euler, which normalises first.
+constexpr double kSafeNorm2Low = 1e-100;
+constexpr double kSafeNorm2High = 1e100;
+
+// Quaternion -> Euler: Bernardes & Viollet 2022, as in to_euler (euler.cpp).
+// Three loops per stage: (1) the operands of the three atan2, (2) one atan2 loop over all
+// of them (3 x 256 values, the vector units busy with one short body), (3) the angles, the
+// ranges and the lock margin.
 template <bool Proper>
-ATTISCOPE_INLINE void quat_to_euler_body(const QuatToEulerArgs& p) {
-  const std::size_t n = p.n;
-  const double* w = p.w;
-  const double* vi = p.qi;
-  const double* vj = p.qj;
-  const double* vk = p.qk;
+ATTISCOPE_INLINE std::size_t quat_to_euler_body(const QuatToEulerArgs& p) {
+  alignas(64) double ys[3 * kStage];
+  alignas(64) double xs[3 * kStage];
+  alignas(64) double angle[3 * kStage];
   const double sign = p.sign;
-  double* out1 = p.out1;
-  double* out2 = p.out2;
-  double* out3 = p.out3;
-  double* margin = p.margin;
+  const double redo_below = p.redo_below;
+  std::size_t redo = 0;
+  for (std::size_t start = 0; start < p.n; start += kStage) {
+    const std::size_t len = std::min(kStage, p.n - start);
+    const double* w = p.w + start;
+    const double* vi = p.qi + start;
+    const double* vj = p.qj + start;
+    const double* vk = p.qk + start;
+    double* out1 = p.out1 + start;
+    double* out2 = p.out2 + start;
+    double* out3 = p.out3 + start;
+    double* margin = p.margin + start;
+    // ys/xs hold atan2(b, a) for s in [0, len), atan2(d, c) in [len, 2 len) and the middle
+    // angle in [2 len, 3 len): one contiguous run for stage (2).
+    double* y_sum = ys;
+    double* x_sum = xs;
+    double* y_diff = ys + len;
+    double* x_diff = xs + len;
+    double* y_mid = ys + 2 * len;
+    double* x_mid = xs + 2 * len;
 #pragma omp simd
-  for (std::size_t s = 0; s < n; ++s) {
-    const double qw = w[s];
-    const double qi = vi[s];
-    const double qj = vj[s];
-    const double qk = vk[s] * sign;
-    // Proper: (a, b, c, d) = (w, qi, qj, qk). Tait-Bryan: the quaternion turned by 45
-    // degrees about the j axis, which makes the sequence proper.
-    const double a = Proper ? qw : qw - qj;
-    const double b = Proper ? qi : qi + qk;
-    const double c = Proper ? qj : qj + qw;
-    const double d = Proper ? qk : qk - qi;
-    // t2 = 2 atan2(hypot(c, d), hypot(a, b)) as in to_euler, with one square root:
-    // sqrt(n2 / n1) = sqrt(n1 n2) / n1 = n2 / sqrt(n1 n2), the larger of n1, n2 as divisor.
-    // Same to a few ulp; a product that underflows needs a ratio below 1e-150, which only
-    // happens within 1e-75 rad of lock, where batch.cpp redoes the sample with to_euler.
-    const double n1 = a * a + b * b;
-    const double n2 = c * c + d * d;
-    const double root = std::sqrt(n1 * n2);
-    const bool n1_larger = n1 >= n2;
-    double t2 = 2.0 * std::atan2(n1_larger ? root : n2, n1_larger ? n1 : root);  // [0, pi]
-    const double half_sum = std::atan2(b, a);
-    const double half_diff = std::atan2(d, c);
-    const double t1 = half_sum - half_diff;
-    double t3 = half_sum + half_diff;
-    double m;
-    if constexpr (Proper) {
-      m = (kPi - t2 < t2) ? kPi - t2 : t2;  // std::min(t2, pi - t2), as lock_margin
-    } else {
-      t3 *= sign;
-      t2 -= kHalfPi;
-      m = kHalfPi - std::fabs(t2);
+    for (std::size_t s = 0; s < len; ++s) {
+      const double qw = w[s];
+      const double qi = vi[s];
+      const double qj = vj[s];
+      const double qk = vk[s] * sign;
+      // Proper: (a, b, c, d) = (w, qi, qj, qk). Tait-Bryan: the quaternion turned by 45
+      // degrees about the j axis, which makes the sequence proper.
+      const double a = Proper ? qw : qw - qj;
+      const double b = Proper ? qi : qi + qk;
+      const double c = Proper ? qj : qj + qw;
+      const double d = Proper ? qk : qk - qi;
+      y_sum[s] = b;
+      x_sum[s] = a;
+      y_diff[s] = d;
+      x_diff[s] = c;
+      const double n1 = a * a + b * b;
+      const double n2 = c * c + d * d;
+      const double root = std::sqrt(n1 * n2);  // |ab| |cd|
+      if constexpr (Proper) {
+        // t2 = 2 atan2(|cd|, |ab|) as in to_euler, with one square root:
+        // |cd| / |ab| = root / n1 = n2 / root, the larger of n1, n2 as divisor.
+        const bool n1_larger = n1 >= n2;
+        y_mid[s] = n1_larger ? root : n2;
+        x_mid[s] = n1_larger ? n1 : root;
+      } else {
+        // The exact form of to_euler: t2 = atan2(2 (w q_j - sign q_i q_k), |ab| |cd|), no
+        // subtraction of pi/2 (full relative precision for small middle angles). Both
+        // operands scale with the squared norm, so a non-unit quaternion gives the same t2.
+        y_mid[s] = 2.0 * (qw * qj - qi * qk);
+        x_mid[s] = root;
+      }
+      // Zero, NaN, Inf or a norm outside the safe range: flagged for batch.cpp.
+      const double norm2 = qw * qw + qi * qi + qj * qj + qk * qk;
+      const bool usable = norm2 >= kSafeNorm2Low && norm2 <= kSafeNorm2High;
+      margin[s] = usable ? 0.0 : -1.0;
     }
-    // Zero, NaN, Inf or a norm outside the normal range: flagged for batch.cpp.
-    const double norm2 = qw * qw + qi * qi + qj * qj + qk * qk;
-    const bool usable = norm2 >= DBL_MIN && norm2 <= DBL_MAX;
-    out1[s] = wrap_one_turn(t1);
-    out2[s] = t2;
-    out3[s] = wrap_one_turn(t3);
-    margin[s] = usable ? m : -1.0;
+    const std::size_t len3 = 3 * len;
+#pragma omp simd
+    for (std::size_t s = 0; s < len3; ++s) angle[s] = atan2_poly(ys[s], xs[s]);
+    const double* half_sum = angle;
+    const double* half_diff = angle + len;
+    const double* mid = angle + 2 * len;
+#pragma omp simd reduction(+ : redo)
+    for (std::size_t s = 0; s < len; ++s) {
+      const double t1 = half_sum[s] - half_diff[s];
+      double t3 = half_sum[s] + half_diff[s];
+      double t2;
+      double m;
+      if constexpr (Proper) {
+        t2 = 2.0 * mid[s];                    // [0, pi]
+        m = (kPi - t2 < t2) ? kPi - t2 : t2;  // std::min(t2, pi - t2), as lock_margin
+      } else {
+        t3 *= sign;
+        t2 = mid[s];  // [-pi/2, pi/2]
+        m = kHalfPi - std::fabs(t2);
+      }
+      out1[s] = wrap_one_turn(t1);
+      out2[s] = t2;
+      out3[s] = wrap_one_turn(t3);
+      const double flagged = margin[s] < 0.0 ? -1.0 : m;
+      margin[s] = flagged;
+      redo += flagged >= redo_below ? 0u : 1u;  // NaN counts too
+    }
   }
+  return redo;
 }
 
 // Euler -> quaternion: the product of three half-angle quaternions (as from_euler).
@@ -255,29 +357,32 @@ ATTISCOPE_INLINE void quat_to_matrix_body(const QuatMatrixArgs& p) {
 
 // One set of entry points per instruction set. The bodies are inlined into each, so GCC
 // vectorises them for that set and calls the matching libmvec variant.
-#define ATTISCOPE_DEFINE_KERNELS(NAME, TARGET)                                  \
-  namespace NAME {                                                              \
-  TARGET void q2e_tb(const QuatToEulerArgs& p) {                                \
-    quat_to_euler_body<false>(p);                                               \
-  }                                                                             \
-  TARGET void q2e_proper(const QuatToEulerArgs& p) {                            \
-    quat_to_euler_body<true>(p);                                                \
-  }                                                                             \
-  TARGET void e2q_tb(const EulerToQuatArgs& p) {                                \
-    euler_to_quat_body<false>(p);                                               \
-  }                                                                             \
-  TARGET void e2q_proper(const EulerToQuatArgs& p) {                            \
-    euler_to_quat_body<true>(p);                                                \
-  }                                                                             \
-  TARGET void m2q(const MatrixQuatArgs& p) {                                    \
-    matrix_to_quat_body(p);                                                     \
-  }                                                                             \
-  TARGET void q2m(const QuatMatrixArgs& p) {                                    \
-    quat_to_matrix_body(p);                                                     \
-  }                                                                             \
-  KernelTable table() {                                                         \
-    return KernelTable{&q2e_tb, &q2e_proper, &e2q_tb, &e2q_proper, &m2q, &q2m}; \
-  }                                                                             \
+#define ATTISCOPE_DEFINE_KERNELS(NAME, TARGET)                                               \
+  namespace NAME {                                                                           \
+  TARGET std::size_t q2e_tb(const QuatToEulerArgs& p) {                                      \
+    return quat_to_euler_body<false>(p);                                                     \
+  }                                                                                          \
+  TARGET std::size_t q2e_proper(const QuatToEulerArgs& p) {                                  \
+    return quat_to_euler_body<true>(p);                                                      \
+  }                                                                                          \
+  TARGET void e2q_tb(const EulerToQuatArgs& p) {                                             \
+    euler_to_quat_body<false>(p);                                                            \
+  }                                                                                          \
+  TARGET void e2q_proper(const EulerToQuatArgs& p) {                                         \
+    euler_to_quat_body<true>(p);                                                             \
+  }                                                                                          \
+  TARGET void m2q(const MatrixQuatArgs& p) {                                                 \
+    matrix_to_quat_body(p);                                                                  \
+  }                                                                                          \
+  TARGET void q2m(const QuatMatrixArgs& p) {                                                 \
+    quat_to_matrix_body(p);                                                                  \
+  }                                                                                          \
+  TARGET void atan2s(std::size_t n, const double* y, const double* x, double* out) {         \
+    _Pragma("omp simd") for (std::size_t s = 0; s < n; ++s) out[s] = atan2_poly(y[s], x[s]); \
+  }                                                                                          \
+  KernelTable table() {                                                                      \
+    return KernelTable{&q2e_tb, &q2e_proper, &e2q_tb, &e2q_proper, &m2q, &q2m, &atan2s};     \
+  }                                                                                          \
   }
 
 ATTISCOPE_DEFINE_KERNELS(baseline, )

@@ -11,7 +11,9 @@ namespace attiscope::batch_detail {
 /// Viollet 2022 (see to_euler): qi, qj, qk are the columns of the extrinsic axes i, j, k
 /// (k = the third axis for proper sequences), sign the parity of (i, j, k); out1 and out3
 /// receive t1 and t3 (swapped by the caller for intrinsic conventions). margin gets the
-/// lock margin, or -1 for a quaternion that is not finite or has no usable norm.
+/// lock margin, or -1 for a quaternion that is not finite or whose squared norm is outside
+/// the range the SIMD formula handles (1e-100 to 1e100). The kernel returns how many
+/// margins are below redo_below (the samples the caller must redo).
 struct QuatToEulerArgs {
   std::size_t n = 0;
   const double* w = nullptr;
@@ -23,6 +25,7 @@ struct QuatToEulerArgs {
   double* out2 = nullptr;
   double* out3 = nullptr;
   double* margin = nullptr;
+  double redo_below = 0.0;
 };
 
 /// Euler -> quaternion as the intrinsic product q = q_i(A) q_j(B) q_m(C) (m = k for
@@ -59,12 +62,14 @@ struct QuatMatrixArgs {
 };
 
 struct KernelTable {
-  void (*quat_to_euler_tait_bryan)(const QuatToEulerArgs&);
-  void (*quat_to_euler_proper)(const QuatToEulerArgs&);
+  std::size_t (*quat_to_euler_tait_bryan)(const QuatToEulerArgs&);
+  std::size_t (*quat_to_euler_proper)(const QuatToEulerArgs&);
   void (*euler_to_quat_tait_bryan)(const EulerToQuatArgs&);
   void (*euler_to_quat_proper)(const EulerToQuatArgs&);
   void (*matrix_to_quat)(const MatrixQuatArgs&);
   void (*quat_to_matrix)(const QuatMatrixArgs&);
+  /// The atan2 of the quaternion -> Euler loops over columns, for the tests.
+  void (*atan2_columns)(std::size_t n, const double* y, const double* x, double* out);
 };
 
 enum class Isa { Baseline, Avx2, Avx512 };

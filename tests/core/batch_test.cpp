@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "../../core/src/batch_kernels.hpp"
 #include "attiscope/core/matrix.hpp"
 #include "support/check.hpp"
 
@@ -15,7 +16,9 @@ namespace attiscope {
 namespace {
 
 using test::kBatchAngle;
+using test::kBatchAtan2;
 using test::kBatchComponent;
+using test::kBatchRelative;
 using test::kSeed;
 
 /// Away from lock by more than this the angles themselves are compared; closer, the split
@@ -167,6 +170,107 @@ TEST(BatchTest, QuaternionToEulerMatchesScalarOnEdgeCorpus) {
       ASSERT_TRUE(quaternions_to_euler(q.in(), c, got.out(), path).ok());
       for (std::size_t s = 0; s < q.w.size(); ++s) {
         EXPECT_TRUE(EulerMatches(q, got, s, c)) << "path " << batch_path_name(path);
+      }
+    }
+  }
+}
+
+/// The instruction sets whose kernels this CPU can run, as the internal table names them.
+std::vector<std::pair<BatchPath, batch_detail::Isa>> isas_to_test() {
+  std::vector<std::pair<BatchPath, batch_detail::Isa>> out{
+      {BatchPath::Baseline, batch_detail::Isa::Baseline}};
+  if (batch_path_available(BatchPath::Avx2)) out.emplace_back(BatchPath::Avx2, batch_detail::Isa::Avx2);
+  if (batch_path_available(BatchPath::Avx512)) out.emplace_back(BatchPath::Avx512, batch_detail::Isa::Avx512);
+  return out;
+}
+
+TEST(BatchTest, KernelAtan2MatchesLibm) {
+  // The quaternion -> Euler loops use their own atan2 (a polynomial after Cody & Waite's
+  // range reduction). Against glibc's std::atan2 (correctly rounded in practice) over random
+  // operands of every size and sign, the octant edges, zeros of both signs and infinities.
+  std::mt19937 rng(kSeed);
+  std::uniform_real_distribution<double> unit(-1.0, 1.0);
+  std::uniform_real_distribution<double> exponent(-300.0, 300.0);
+  std::vector<double> y, x;
+  for (int s = 0; s < 200000; ++s) {
+    y.push_back(unit(rng));
+    x.push_back(unit(rng));
+  }
+  for (int s = 0; s < 50000; ++s) {
+    y.push_back(std::copysign(std::pow(10.0, exponent(rng)), unit(rng)));
+    x.push_back(std::copysign(std::pow(10.0, exponent(rng)), unit(rng)));
+  }
+  // Ratios at the reduction points tan(pi/8) and 1, and either side of them.
+  for (double ratio : {std::tan(M_PI / 8.0), 1.0, 1.0 / std::tan(M_PI / 8.0)}) {
+    for (double off : {-1e-15, -1e-9, 0.0, 1e-9, 1e-15}) {
+      for (double sy : {1.0, -1.0}) {
+        for (double sx : {1.0, -1.0}) {
+          y.push_back(sy * ratio * (1.0 + off));
+          x.push_back(sx);
+        }
+      }
+    }
+  }
+  const double inf = std::numeric_limits<double>::infinity();
+  for (double a : {0.0, -0.0, 1.0, -1.0, 1e-310, inf, -inf}) {
+    for (double b : {0.0, -0.0, 1.0, -1.0, 1e-310, inf, -inf}) {
+      if (std::isinf(a) && std::isinf(b)) continue;  // not needed by the kernels
+      y.push_back(a);
+      x.push_back(b);
+    }
+  }
+  for (const auto& [path, isa] : isas_to_test()) {
+    std::vector<double> got(y.size());
+    batch_detail::kernels(isa).atan2_columns(y.size(), y.data(), x.data(), got.data());
+    double worst = 0.0;
+    for (std::size_t s = 0; s < y.size(); ++s) {
+      const double want = std::atan2(y[s], x[s]);
+      const double err = std::abs(got[s] - want);
+      worst = std::max(worst, err);
+      ASSERT_LE(err, kBatchAtan2) << "atan2(" << y[s] << ", " << x[s] << ") path " << batch_path_name(path)
+                                  << " seed " << kSeed;
+      // Signed zeros and the sign of pi as std::atan2.
+      ASSERT_EQ(std::signbit(got[s]), std::signbit(want)) << "atan2(" << y[s] << ", " << x[s] << ")";
+    }
+    RecordProperty(std::string("worst_") + batch_path_name(path), std::to_string(worst));
+  }
+}
+
+TEST(BatchTest, MiddleAngleKeepsRelativePrecisionNearLevelAndLock) {
+  // Tait-Bryan middle angles from the exact form of to_euler (no t2 - pi/2, which leaves an
+  // absolute error of about 2e-16 rad): a 1e-12 rad pitch keeps all its digits, and next to
+  // +/-90 degrees the margin is that of to_euler.
+  for (const EulerConvention& c : all_euler_conventions()) {
+    if (c.proper()) continue;
+    std::vector<double> middles;
+    for (double mid : {1e-3, 1e-6, 1e-9, 1e-12, 1e-15, 1e-200}) {
+      for (double side : {1.0, -1.0}) middles.push_back(side * mid);
+    }
+    // Beside lock: just outside the redo band (2 x the lock threshold) and a little further.
+    for (double off : {2.5 * kLockMarginRad, 1e-7, 1e-5}) {
+      for (double side : {1.0, -1.0}) middles.push_back(side * (0.5 * M_PI - off));
+    }
+    // A turn about the middle axis alone (q_i = q_k = 0: the inputs carry no rounding that
+    // cancels), then one with first and third angles, whose quaternion components are
+    // rounded to about 1e-16 each: w q_j - q_i q_k then cancels to about that absolute size.
+    for (const auto& [outer, floor] : {std::pair<double, double>{0.0, 0.0}, {0.4, 1e-16}}) {
+      QuatColumns q;
+      for (double mid : middles)
+        q.push(from_euler(c, Eigen::Vector3d(outer, mid, -5.5 * outer)).stored_quaternion());
+      for (const auto& [path, isa] : isas_to_test()) {
+        AngleColumns got(q.w.size());
+        ASSERT_TRUE(quaternions_to_euler(q.in(), c, got.out(), path).ok());
+        for (std::size_t s = 0; s < q.w.size(); ++s) {
+          const EulerAngles want = to_euler(Rotation(q.at(s)), c);
+          const double tol = kBatchRelative * std::abs(want.angles_rad(1)) + floor;
+          EXPECT_LE(std::abs(got.a2[s] - want.angles_rad(1)), tol)
+              << c.name() << " middle " << middles[s] << " outer " << outer << " path "
+              << batch_path_name(path);
+          EXPECT_LE(std::abs(got.margin[s] - want.lock_margin_rad), kBatchAtan2)
+              << c.name() << " middle " << middles[s] << " outer " << outer << " path "
+              << batch_path_name(path);
+          EXPECT_EQ(want.at_lock, got.margin[s] < kLockMarginRad);
+        }
       }
     }
   }

@@ -22,6 +22,11 @@ inline constexpr double kRoundTrip = 1e-12;
 inline constexpr double kBatchAngle = 1e-14;
 /// The batch kernels' quaternion components and matrix entries against the single-pose ones.
 inline constexpr double kBatchComponent = 4e-15;
+/// The batch kernels' own atan2 against std::atan2, and their lock margins next to lock
+/// against to_euler's (radians: a few ulp of pi).
+inline constexpr double kBatchAtan2 = 1e-15;
+/// Small Tait-Bryan middle angles of the batch against to_euler's, relative (a few ulp).
+inline constexpr double kBatchRelative = 1e-14;
 /// The fixed seed of every property test; failure messages print it.
 inline constexpr std::uint32_t kSeed = 20261201;
 
