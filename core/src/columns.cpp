@@ -14,6 +14,7 @@
 #include <cstdint>
 #include <cstring>
 #include <fstream>
+#include <thread>
 
 namespace attiscope {
 
@@ -520,42 +521,59 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
   return m;
 }
 
-Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, const ReadProgress& progress,
-                                const std::atomic<bool>* cancel) {
-  Track track;
-  track.columns = m.columns;
-  track.reading = track_form_name(m.form);
-  track.has_time = m.time_column >= 0;
-  track.time_unit = track.has_time ? m.time_unit : "";
-  const bool quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
-  const std::size_t used = quat ? 4 : 9;
-  // slot_of[column]: -1 ignored, 0 time, 1.. rotation numbers in storage order.
-  std::vector<int> slot_of(m.column_count, -1);
-  if (m.time_column >= 0 && static_cast<std::size_t>(m.time_column) < m.column_count) {
-    slot_of[static_cast<std::size_t>(m.time_column)] = 0;
+namespace {
+
+/// Below this many bytes of rows a log is read on one thread (a thread costs more).
+constexpr std::size_t kParallelMinBytes = std::size_t{4} << 20;
+/// The most threads a read uses: the parts are memory-bound, more than two gain little.
+constexpr unsigned kMaxReadThreads = 2;
+
+/// What every part of a read shares: the mapping worked out into slots, progress, cancel.
+struct RowReader {
+  const ColumnMapping& m;
+  std::vector<int> slot_of;  ///< per column: -1 ignored, 0 time, 1.. rotation numbers
+  bool quat = true;
+  const char* text_end = nullptr;  ///< end of the whole text (a part may end before it)
+  std::size_t text_size = 0;
+  const ReadProgress* progress = nullptr;
+  const std::atomic<bool>* cancel = nullptr;
+  std::atomic<std::size_t> others_done{0};  ///< bytes done by the parts that do not report
+
+  RowReader(const ColumnMapping& mapping, std::string_view text, const ReadProgress* p,
+            const std::atomic<bool>* c)
+      : m(mapping),
+        slot_of(mapping.column_count, -1),
+        text_end(text.data() + text.size()),
+        text_size(text.size()),
+        progress(p),
+        cancel(c) {
+    quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
+    const std::size_t used = quat ? 4 : 9;
+    if (m.time_column >= 0 && static_cast<std::size_t>(m.time_column) < m.column_count) {
+      slot_of[static_cast<std::size_t>(m.time_column)] = 0;
+    }
+    for (std::size_t k = 0; k < used; ++k) {
+      const int col = m.rotation_columns[k];
+      if (col >= 0 && static_cast<std::size_t>(col) < m.column_count)
+        slot_of[static_cast<std::size_t>(col)] = static_cast<int>(k) + 1;
+    }
   }
-  for (std::size_t k = 0; k < used; ++k) {
-    const int c = m.rotation_columns[k];
-    if (c >= 0 && static_cast<std::size_t>(c) < m.column_count)
-      slot_of[static_cast<std::size_t>(c)] = static_cast<int>(k) + 1;
-  }
-  const char* const begin = text.data();
-  const char* const end = begin + text.size();
+};
+
+/// One part of a read: the whole lines in [begin, end), the first of them line number 1 of
+/// the part (the caller shifts bad_rows of later parts). Samples, bad rows and skipped
+/// lines go to `track`; `lines` receives the number of lines. The reporting part calls
+/// progress with the bytes of every part; the others add theirs to others_done. Returns
+/// false when cancelled.
+bool read_rows(RowReader& r, const char* const begin, const char* const end, bool reports, Track& track,
+               std::size_t& lines) {
+  const ColumnMapping& m = r.m;
+  const std::vector<int>& slot_of = r.slot_of;
+  const bool quat = r.quat;
   const char* p = begin;
-  // Estimate of the row count from the first line's length, to reserve once.
-  {
-    const void* nl = std::memchr(p, '\n', static_cast<std::size_t>(end - p));
-    const std::size_t first_len =
-        nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - p) + 1 : text.size();
-    const std::size_t estimate = text.size() / std::max<std::size_t>(first_len, 8) + 16;
-    track.time_s.reserve(estimate);
-    track.qw.reserve(estimate);
-    track.qx.reserve(estimate);
-    track.qy.reserve(estimate);
-    track.qz.reserve(estimate);
-  }
   std::size_t line = 0;
   std::size_t next_report = kProgressStep;
+  std::size_t reported = 0;  // bytes of this part already added to others_done
   double values[10];
   const char delim = m.delimiter;
   while (p < end) {
@@ -564,21 +582,23 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
     const char* le = nl ? nl : end;
     const char* next = nl ? nl + 1 : end;
     if (le > p && le[-1] == '\r') --le;
-    if (line <= m.header_lines) {
-      p = next;
-      continue;
-    }
     if (static_cast<std::size_t>(p - begin) >= next_report) {
       next_report += kProgressStep;
-      if (cancel && cancel->load(std::memory_order_relaxed)) return Error{"reading the log was cancelled"};
-      if (progress) progress(static_cast<std::size_t>(p - begin), text.size());
+      if (r.cancel && r.cancel->load(std::memory_order_relaxed)) return false;
+      const auto done = static_cast<std::size_t>(p - begin);
+      if (reports) {
+        if (*r.progress) (*r.progress)(done + r.others_done.load(std::memory_order_relaxed), r.text_size);
+      } else {
+        r.others_done.fetch_add(done - reported, std::memory_order_relaxed);
+        reported = done;
+      }
     }
     // Blank and comment lines.
     {
       const char* q = p;
       while (q < le && (*q == ' ' || *q == '\t')) ++q;
       if (q == le || *q == '#') {
-        if (!(q == le && next == end && le == p)) ++track.skipped_lines;
+        if (!(q == le && next == r.text_end && le == p)) ++track.skipped_lines;
         p = next;
         continue;
       }
@@ -648,13 +668,13 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
         for (int k = 0; k < 9; ++k) n[static_cast<std::size_t>(k)] = values[k + 1];
         const Eigen::Matrix3d a = matrix_from_numbers(
             n, m.form == TrackForm::MatrixRows ? MatrixStorage::Rows : MatrixStorage::Columns);
-        auto r = from_matrix(a);
-        if (!r) {
+        auto rot = from_matrix(a);
+        if (!rot) {
           bad = true;
-          reason = r.error().message;
+          reason = rot.error().message;
           w = x = y = z = 0;
         } else {
-          const Eigen::Quaterniond q = r.value().stored_quaternion();
+          const Eigen::Quaterniond q = rot.value().stored_quaternion();
           w = q.w();
           x = q.x();
           y = q.y();
@@ -662,6 +682,7 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
         }
       }
       if (!bad) {
+        // Without a time column the part's own sample index; the caller shifts later parts.
         const double t = m.time_column >= 0 ? values[0] * m.time_scale : static_cast<double>(track.qw.size());
         track.time_s.push_back(t);
         track.qw.push_back(w);
@@ -672,6 +693,105 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
     }
     if (bad) track.bad_rows.push_back({line, reason});
     p = next;
+  }
+  if (!reports)
+    r.others_done.fetch_add(static_cast<std::size_t>(end - begin) - reported, std::memory_order_relaxed);
+  lines = line;
+  return true;
+}
+
+/// Reserves the sample arrays for about `bytes` of rows like the first one at p.
+void reserve_rows(Track& track, const char* p, const char* end) {
+  const void* nl = std::memchr(p, '\n', static_cast<std::size_t>(end - p));
+  const auto bytes = static_cast<std::size_t>(end - p);
+  const std::size_t first_len = nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - p) + 1 : bytes;
+  const std::size_t estimate = bytes / std::max<std::size_t>(first_len, 8) + 16;
+  track.time_s.reserve(estimate);
+  track.qw.reserve(estimate);
+  track.qx.reserve(estimate);
+  track.qy.reserve(estimate);
+  track.qz.reserve(estimate);
+}
+
+/// Where to cut [begin, end) into `parts` runs of whole lines: parts + 1 pointers.
+std::vector<const char*> cut_at_lines(const char* begin, const char* end, unsigned parts) {
+  std::vector<const char*> cut{begin};
+  const auto bytes = static_cast<std::size_t>(end - begin);
+  for (unsigned k = 1; k < parts; ++k) {
+    const char* at = begin + bytes * k / parts;
+    if (at < cut.back()) at = cut.back();
+    const void* nl = std::memchr(at, '\n', static_cast<std::size_t>(end - at));
+    cut.push_back(nl ? static_cast<const char*>(nl) + 1 : end);
+  }
+  cut.push_back(end);
+  return cut;
+}
+
+/// Appends a later part to the track: its samples (sample-index times shifted by the
+/// samples before it), its bad rows (line numbers shifted by the lines before it).
+void append_part(Track& track, Track&& part, std::size_t lines_before) {
+  const std::size_t samples_before = track.qw.size();
+  if (!track.has_time) {
+    for (double& t : part.time_s) t += static_cast<double>(samples_before);  // exact below 2^53
+  }
+  track.time_s.insert(track.time_s.end(), part.time_s.begin(), part.time_s.end());
+  track.qw.insert(track.qw.end(), part.qw.begin(), part.qw.end());
+  track.qx.insert(track.qx.end(), part.qx.begin(), part.qx.end());
+  track.qy.insert(track.qy.end(), part.qy.begin(), part.qy.end());
+  track.qz.insert(track.qz.end(), part.qz.begin(), part.qz.end());
+  for (BadRow& b : part.bad_rows) {
+    b.line += lines_before;
+    track.bad_rows.push_back(std::move(b));
+  }
+  track.skipped_lines += part.skipped_lines;
+}
+
+}  // namespace
+
+Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, const ReadProgress& progress,
+                                const std::atomic<bool>* cancel) {
+  Track track;
+  track.columns = m.columns;
+  track.reading = track_form_name(m.form);
+  track.has_time = m.time_column >= 0;
+  track.time_unit = track.has_time ? m.time_unit : "";
+  const char* const begin = text.data();
+  const char* const end = begin + text.size();
+  // The header lines, which are not data.
+  const char* rows = begin;
+  std::size_t header_lines = 0;
+  while (rows < end && header_lines < m.header_lines) {
+    const void* nl = std::memchr(rows, '\n', static_cast<std::size_t>(end - rows));
+    rows = nl ? static_cast<const char*>(nl) + 1 : end;
+    ++header_lines;
+  }
+  RowReader reader(m, text, &progress, cancel);
+  // A long log is cut at line boundaries into parts read on their own threads, then joined
+  // in file order: the same samples, bad rows and line numbers as one pass.
+  const unsigned hardware = std::max(1u, std::thread::hardware_concurrency());
+  const unsigned parts =
+      static_cast<std::size_t>(end - rows) >= kParallelMinBytes ? std::min(kMaxReadThreads, hardware) : 1u;
+  const std::vector<const char*> cut = cut_at_lines(rows, end, parts);
+  std::vector<Track> later(parts - 1);
+  std::vector<std::size_t> lines(parts, 0);
+  std::vector<char> finished(parts, 0);
+  std::vector<std::thread> workers;
+  for (unsigned k = 1; k < parts; ++k) {
+    workers.emplace_back([&, k] {
+      reserve_rows(later[k - 1], cut[k], cut[k + 1]);
+      finished[k] = read_rows(reader, cut[k], cut[k + 1], false, later[k - 1], lines[k]) ? 1 : 0;
+    });
+  }
+  reserve_rows(track, cut[0], parts > 1 ? end : cut[1]);  // room for every part's samples
+  finished[0] = read_rows(reader, cut[0], cut[1], true, track, lines[0]) ? 1 : 0;
+  for (std::thread& t : workers) t.join();
+  if (std::find(finished.begin(), finished.end(), 0) != finished.end())
+    return Error{"reading the log was cancelled"};
+  std::size_t lines_before = header_lines + lines[0];
+  for (auto& b : track.bad_rows) b.line += header_lines;
+  for (unsigned k = 1; k < parts; ++k) {
+    append_part(track, std::move(later[k - 1]), lines_before);
+    lines_before += lines[k];
   }
   if (progress) progress(text.size(), text.size());
   return track;
