@@ -284,7 +284,6 @@ ATTISCOPE_INLINE void matrix_to_quat_body(const MatrixQuatArgs& p) {
     const bool p3 = pivot == 3.0;
     const double pivot_diag = p3 ? r22 : (p2 ? r11 : r00);
     const double four_q2 = p0 ? 1.0 + tr : 1.0 + 2.0 * pivot_diag - tr;
-    const double sq = 2.0 * std::sqrt(four_q2);  // 4 q_p
     const double d0 = r21 - r12;
     const double d1 = r02 - r20;
     const double d2 = r10 - r01;
@@ -295,13 +294,14 @@ ATTISCOPE_INLINE void matrix_to_quat_body(const MatrixQuatArgs& p) {
     const double nx = p0 ? d0 : (p2 ? u01 : u02);
     const double ny = p0 ? d1 : (p1 ? u01 : u12);
     const double nz = p0 ? d2 : (p1 ? u02 : u12);
-    // One reciprocal instead of seven divisions (the single-pose code divides): an ulp.
-    const double quarter = 0.25 * sq;
-    const double inv_sq = 1.0 / sq;
-    double qw = p0 ? quarter : nw * inv_sq;
-    double qx = p1 ? quarter : nx * inv_sq;
-    double qy = p2 ? quarter : ny * inv_sq;
-    double qz = p3 ? quarter : nz * inv_sq;
+    // Shepperd's quaternion times 4 q_p: the pivot component 4 q_p^2, the others 4 q_p q_i
+    // (the sums and differences above). Normalising that vector gives the quaternion of
+    // quaternion_from_rotation_matrix, which divides by 4 q_p and then normalises, to an
+    // ulp: one square root and one division instead of two of each.
+    double qw = p0 ? four_q2 : nw;
+    double qx = p1 ? four_q2 : nx;
+    double qy = p2 ? four_q2 : ny;
+    double qz = p3 ? four_q2 : nz;
     const double inv_norm = 1.0 / std::sqrt(qx * qx + qy * qy + qz * qz + qw * qw);
     qw *= inv_norm;
     qx *= inv_norm;
