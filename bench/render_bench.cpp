@@ -3,8 +3,10 @@
 //   render_bench [--frames N]
 //
 // Prints the median and 90th percentile time of the 3D pass alone (scene, body, rings,
-// labels and the antialiasing pass) into a 900x700 target, finished with glFinish, for
-// several variants, and the readback + PNG encode of a 1024x768 picture. The whole-process
+// labels and the antialiasing pass) into a 900x700 region, finished with glFinish, for
+// several variants while the body turns a little every frame, the same view when nothing
+// changed (the kept scene is shown again), and the readback + PNG encode of a 1024x768
+// picture. The whole-process
 // time of `attiscope render` is measured by scripts/bench-render.sh.
 #define GL_GLEXT_PROTOTYPES 1
 #include <GL/glcorearb.h>
@@ -112,9 +114,22 @@ int main(int argc, char** argv) {
     glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_RENDERBUFFER, rb[0]);
     glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, rb[1]);
     const Region region{350, 100, 900, 700, 900};
-    const Figures f = time_it(frames, [&] { r.value()->draw(s, region); });
+    // The body turns a little every frame, as in the window while it is turned (an unchanged
+    // scene would be reused, not drawn again).
+    int frame = 0;
+    const Figures f = time_it(frames, [&] {
+      s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30 + 0.5 * frame++, 20, 10) * kDeg);
+      if (v.rings) s.rings = to_euler(s.world_R_body, EulerConvention{});
+      r.value()->draw(s, region);
+    });
     std::printf("3D pass 900x700, %-36s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (%zu triangles)\n",
                 v.name, f.median_ms, f.p90_ms, f.cpu_median_ms, r.value()->last_triangle_count());
+    if (v.aa == Antialiasing::Post && !v.rings) {
+      const Figures u = time_it(frames, [&] { r.value()->draw(s, region); });
+      std::printf("3D view 900x700, %-35s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (reused: %s)\n",
+                  "unchanged scene, post AA", u.median_ms, u.p90_ms, u.cpu_median_ms,
+                  r.value()->last_draw_reused() ? "yes" : "no");
+    }
     glBindFramebuffer(GL_FRAMEBUFFER, 0);
     glDeleteFramebuffers(1, &fbo);
     glDeleteRenderbuffers(2, rb);

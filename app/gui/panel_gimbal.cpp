@@ -99,7 +99,7 @@ void margin_table_view(Ui& ui, ViewState& v) {
 
 void draw_gimbal_panel(Ui& ui) {
 #ifdef ATTISCOPE_HAS_RENDER
-  ViewState& v = view_state();
+  ViewState& v = view_state(ui);
   convention_combo(ui, v);
   const EulerConvention c = rings_convention(ui);
   const EulerAngles e = to_euler(ui.doc.pose(), c);

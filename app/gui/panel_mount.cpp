@@ -200,7 +200,7 @@ void load_setup(Ui& ui) {
   render::SceneState probe =
       scene_state(ui, std::max(ui.scene_viewport.width, 1), std::max(ui.scene_viewport.height, 1));
   apply_chain_overlay(ui, &probe);
-  view_state().camera = render::chain_framing(probe, kSceneViewDistance);
+  view_state(ui).camera = render::chain_framing(probe, kSceneViewDistance);
 #endif
 }
 

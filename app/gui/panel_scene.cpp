@@ -67,18 +67,7 @@ std::string default_export_path() {
   return dir.empty() ? std::string(name) : (fs::path(dir) / name).string();
 }
 
-/// Per-panel text fields (window state, not document state).
-struct SceneFields {
-  char mesh_path[512] = "";
-  std::string mesh_error;
-  char export_path[512] = "";
-  int export_w = 1024;
-  int export_h = 768;
-  bool confirm_overwrite = false;
-};
-SceneFields g_fields;
-
-void model_controls(Ui& ui, ViewState& v) {
+void model_controls(Ui& ui, ViewState& v, SceneFields& fields) {
   const std::string current = v.model.user_mesh ? v.user_mesh_name : render::model_info(v.model.kind).name;
   ImGui::SetNextItemWidth(8.5f * ImGui::GetFontSize());
   bool open_load = false;
@@ -104,64 +93,64 @@ void model_controls(Ui& ui, ViewState& v) {
   if (ImGui::BeginPopup("load_mesh")) {
     ImGui::TextUnformatted("OBJ or STL file (written in body coordinates):");
     ImGui::SetNextItemWidth(24.0f * ImGui::GetFontSize());
-    const bool enter = ImGui::InputText("##mesh_path", g_fields.mesh_path, sizeof g_fields.mesh_path,
+    const bool enter = ImGui::InputText("##mesh_path", fields.mesh_path, sizeof fields.mesh_path,
                                         ImGuiInputTextFlags_EnterReturnsTrue);
     record_widget(ui, "scene.mesh_path");
     ImGui::SameLine();
     if (ImGui::Button("Load") || enter) {
-      auto mesh = render::load_mesh_file(g_fields.mesh_path);
+      auto mesh = render::load_mesh_file(fields.mesh_path);
       if (mesh) {
         v.pending_user_mesh = std::move(mesh.value());
-        v.user_mesh_name = std::filesystem::path(g_fields.mesh_path).filename().string();
+        v.user_mesh_name = std::filesystem::path(fields.mesh_path).filename().string();
         v.model.user_mesh = true;
-        g_fields.mesh_error.clear();
+        fields.mesh_error.clear();
         ImGui::CloseCurrentPopup();
       } else {
-        g_fields.mesh_error = mesh.error().describe();
+        fields.mesh_error = mesh.error().describe();
       }
     }
     record_widget(ui, "scene.mesh_load");
-    if (!g_fields.mesh_error.empty())
-      ImGui::TextColored(ImVec4(1.0f, 0.45f, 0.40f, 1.0f), "%s", g_fields.mesh_error.c_str());
+    if (!fields.mesh_error.empty())
+      ImGui::TextColored(ImVec4(1.0f, 0.45f, 0.40f, 1.0f), "%s", fields.mesh_error.c_str());
     ImGui::EndPopup();
   }
 }
 
-void export_popup(Ui& ui, ViewState& v) {
+void export_popup(Ui& ui, ViewState& v, SceneFields& fields) {
   if (ImGui::Button("Export PNG...")) {
-    std::snprintf(g_fields.export_path, sizeof g_fields.export_path, "%s", default_export_path().c_str());
-    g_fields.confirm_overwrite = false;
+    std::snprintf(fields.export_path, sizeof fields.export_path, "%s", default_export_path().c_str());
+    fields.confirm_overwrite = false;
     ImGui::OpenPopup("export_png");
   }
   record_widget(ui, "scene.export");
   if (!ImGui::BeginPopup("export_png")) return;
   ImGui::TextUnformatted("Export the Scene as a PNG (the picture `attiscope render` makes)");
   ImGui::SetNextItemWidth(26.0f * ImGui::GetFontSize());
-  if (ImGui::InputText("path", g_fields.export_path, sizeof g_fields.export_path))
-    g_fields.confirm_overwrite = false;
+  if (ImGui::InputText("path", fields.export_path, sizeof fields.export_path))
+    fields.confirm_overwrite = false;
   record_widget(ui, "scene.export_path");
   ImGui::SetNextItemWidth(6.0f * ImGui::GetFontSize());
-  ImGui::InputInt("width", &g_fields.export_w, 0, 0);
+  ImGui::InputInt("width", &fields.export_w, 0, 0);
   ImGui::SameLine();
   ImGui::SetNextItemWidth(6.0f * ImGui::GetFontSize());
-  ImGui::InputInt("height", &g_fields.export_h, 0, 0);
-  g_fields.export_w = std::clamp(g_fields.export_w, 16, 8192);
-  g_fields.export_h = std::clamp(g_fields.export_h, 16, 8192);
+  ImGui::InputInt("height", &fields.export_h, 0, 0);
+  fields.export_w = std::clamp(fields.export_w, 16, 8192);
+  fields.export_h = std::clamp(fields.export_h, 16, 8192);
   std::error_code ec;
-  const bool exists = std::filesystem::exists(g_fields.export_path, ec);
-  const bool empty = g_fields.export_path[0] == '\0';
+  const bool exists = std::filesystem::exists(fields.export_path, ec);
+  const bool empty = fields.export_path[0] == '\0';
   if (exists) {
     ImGui::TextColored(ImVec4(0.95f, 0.70f, 0.30f, 1.0f), "That file exists.");
     ImGui::SameLine();
-    ImGui::Checkbox("overwrite it", &g_fields.confirm_overwrite);
+    ImGui::Checkbox("overwrite it", &fields.confirm_overwrite);
     record_widget(ui, "scene.export_overwrite");
   }
-  const bool can_save = !empty && (!exists || g_fields.confirm_overwrite);
+  const bool can_save = !empty && (!exists || fields.confirm_overwrite);
   if (!can_save) ImGui::BeginDisabled();
   if (ImGui::Button("Save")) {
-    v.export_request = ExportRequest{g_fields.export_path, g_fields.export_w, g_fields.export_h};
+    v.export_request = ExportRequest{fields.export_path, fields.export_w, fields.export_h};
     v.export_message = "exporting...";
-    g_fields.confirm_overwrite = false;
+    fields.confirm_overwrite = false;
   }
   if (!can_save) ImGui::EndDisabled();
   record_widget(ui, "scene.export_save");
@@ -188,7 +177,7 @@ float small_button_width(const char* label) {
   return ImGui::CalcTextSize(label, nullptr, true).x + 2.0f * ImGui::GetStyle().FramePadding.x;
 }
 
-void view_controls(Ui& ui, ViewState& v) {
+void view_controls(Ui& ui, ViewState& v, SceneFields& fields) {
   ImGui::SameLine();
   ImGui::Checkbox("Reference", &v.show_ghost);
   record_widget(ui, "scene.ghost");
@@ -206,7 +195,7 @@ void view_controls(Ui& ui, ViewState& v) {
   }
   same_line_if_fits(small_button_width("Export PNG...") + ImGui::GetStyle().FramePadding.x,
                     ImGui::GetFontSize());
-  export_popup(ui, v);
+  export_popup(ui, v, fields);
 }
 
 Eigen::Vector2d pixel_in(const ImVec2& region_min) {
@@ -223,7 +212,7 @@ void view_input(Ui& ui, ViewState& v, const ImVec2& region_min) {
   const Eigen::Vector2d px = pixel_in(region_min);
   if (ImGui::IsItemActivated()) {
     const render::SceneState st = scene_state(ui, r.width, r.height);
-    const render::Mesh* mesh = scene_mesh();
+    const render::Mesh* mesh = scene_mesh(ui);
     if (ImGui::IsMouseClicked(ImGuiMouseButton_Left) && mesh && render::pick_body(st, *mesh, px)) {
       // The arcball sphere: centred on the body's projected centre, about the body's size.
       const Eigen::Vector3d centre = Eigen::Vector3d::Zero();
@@ -278,13 +267,14 @@ void view_input(Ui& ui, ViewState& v, const ImVec2& region_min) {
 }  // namespace
 
 void draw_scene_panel(Ui& ui) {
-  ViewState& v = view_state();
-  model_controls(ui, v);
-  view_controls(ui, v);
-  if (!g_fields.mesh_error.empty()) {
-    ImGui::TextColored(ImVec4(1.0f, 0.45f, 0.40f, 1.0f), "Model not loaded: %s", g_fields.mesh_error.c_str());
+  ViewState& v = view_state(ui);
+  SceneFields& fields = ui.views->fields;
+  model_controls(ui, v, fields);
+  view_controls(ui, v, fields);
+  if (!fields.mesh_error.empty()) {
+    ImGui::TextColored(ImVec4(1.0f, 0.45f, 0.40f, 1.0f), "Model not loaded: %s", fields.mesh_error.c_str());
     ImGui::SameLine();
-    if (ImGui::SmallButton("dismiss")) g_fields.mesh_error.clear();
+    if (ImGui::SmallButton("dismiss")) fields.mesh_error.clear();
   }
   const ImVec2 min = ImGui::GetCursorScreenPos();
   const ImVec2 avail = ImGui::GetContentRegionAvail();

@@ -4,7 +4,13 @@
 #include <algorithm>
 #include <cmath>
 
+#include "gui/views.hpp"
+
 namespace attiscope::gui {
+
+Ui::Ui(Document& document, Settings& window_settings)
+    : doc(document), settings(window_settings), views(std::make_unique<Views>()) {}
+Ui::~Ui() = default;
 
 void record_widget(Ui& ui, const std::string& name) {
   const ImVec2 a = ImGui::GetItemRectMin();

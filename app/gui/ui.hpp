@@ -5,6 +5,7 @@
 #pragma once
 
 #include <map>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -12,7 +13,6 @@
 #include <nlohmann/json.hpp>
 
 #include <imgui.h>
-#include <nlohmann/json.hpp>
 
 #include "attiscope/core/finder.hpp"
 #include "attiscope/core/intake.hpp"
@@ -54,8 +54,13 @@ struct FinderPanelState {
   std::optional<GravityResult> gravity;
 };
 
+struct Views;  // gui/views.hpp: the 3D views and their renderer
+
 struct Ui {
-  Ui(Document& document, Settings& window_settings) : doc(document), settings(window_settings) {}
+  Ui(Document& document, Settings& window_settings);
+  ~Ui();
+  Ui(const Ui&) = delete;
+  Ui& operator=(const Ui&) = delete;
   Document& doc;
   Settings& settings;
   bool settings_changed = false;    ///< a panel changed a setting this frame
@@ -94,6 +99,8 @@ struct Ui {
   std::optional<Rotation> shown_pose;
   /// What the Compare and Mount check panels show this frame, for test dumps ("panels").
   nlohmann::json panel_state = nlohmann::json::object();
+  /// The Scene and Gimbal rings views (never null).
+  std::unique_ptr<Views> views;
 };
 
 /// Records the last ImGui item under a test name.

@@ -1,5 +1,5 @@
-// views.cpp: the hook between the window and render/: one SceneRenderer on the window's GL
-// context draws the Scene and the Gimbal rings straight into their regions, and makes the
+// views.cpp: the hook between the window and render/: the Ui's one SceneRenderer on the
+// window's GL context draws the Scene and the Gimbal rings straight into their regions, and makes the
 // Scene panel's PNG export (render_image + write_png, as `attiscope render` does). Without
 // render/ in the build the regions stay empty (the window's clear colour): nothing is drawn
 // that is not real.
@@ -26,29 +26,24 @@ namespace {
 
 constexpr double kDegPerRad = 180.0 / 3.14159265358979323846;
 
-// The window's one renderer and view state, alive between views_init and views_shutdown
-// (the GL context's life).
-std::unique_ptr<render::SceneRenderer> g_renderer;
-ViewState g_views;
-std::string g_init_error;
-
 render::Region region_of(const FramebufferRect& r, int framebuffer_height) {
   // FramebufferRect has GL's bottom-left origin; Region has a top-left one.
   return render::Region{r.x, framebuffer_height - r.y - r.height, r.width, r.height, framebuffer_height};
 }
 
-void run_export(const Ui& ui) {
-  ViewState& v = g_views;
+void run_export(Ui& ui) {
+  Views& views = *ui.views;
+  ViewState& v = views.state;
   const ExportRequest req = *v.export_request;
   v.export_request.reset();
   v.export_failed = true;
-  if (!g_renderer) {
-    v.export_message = "no renderer: " + g_init_error;
+  if (!views.renderer) {
+    v.export_message = "no renderer: " + views.init_error;
     return;
   }
   render::SceneState st = scene_state(ui, req.width, req.height);
-  g_renderer->set_antialiasing(render::Antialiasing::Post);
-  const render::Image image = g_renderer->render_image(st);
+  views.renderer->set_antialiasing(render::Antialiasing::Post);
+  const render::Image image = views.renderer->render_image(st);
   auto written = render::write_png(req.path, image);
   if (!written) {
     v.export_message = written.error().describe();
@@ -61,16 +56,24 @@ void run_export(const Ui& ui) {
 
 }  // namespace
 
-ViewState& view_state() {
-  return g_views;
+Views::Views() {
+  state.camera.distance = kSceneViewDistance;
+}
+Views::~Views() = default;
+
+ViewState& view_state(Ui& ui) {
+  return ui.views->state;
+}
+const ViewState& view_state(const Ui& ui) {
+  return ui.views->state;
 }
 
 EulerConvention rings_convention(const Ui& ui) {
-  return g_views.rings_convention.value_or(ui.doc.convention().house.euler.convention);
+  return view_state(ui).rings_convention.value_or(ui.doc.convention().house.euler.convention);
 }
 
 render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
-  const ViewState& v = g_views;
+  const ViewState& v = view_state(ui);
   render::SceneState st;
   st.world_R_body = ui.shown_pose.value_or(ui.doc.pose());  // a Compare preview shows without committing
   if (v.show_ghost) st.ghost_world_R_body = ui.doc.state().world_R_reference;
@@ -86,45 +89,47 @@ render::SceneState scene_state(const Ui& ui, int width_px, int height_px) {
   return st;
 }
 
-const render::Mesh* scene_mesh() {
-  return g_renderer ? &g_renderer->mesh(g_views.model) : nullptr;
+const render::Mesh* scene_mesh(const Ui& ui) {
+  const Views& views = *ui.views;
+  return views.renderer ? &views.renderer->mesh(views.state.model) : nullptr;
 }
 
-void views_init() {
-  g_views = ViewState{};
-  g_views.camera.distance = kSceneViewDistance;
-  g_init_error.clear();
+void views_init(Ui& ui) {
+  Views& views = *ui.views;
+  views.init_error.clear();
   auto r = render::SceneRenderer::create();
   if (r) {
-    g_renderer = std::move(r.value());
+    views.renderer = std::move(r.value());
   } else {
-    g_init_error = r.error().describe();
+    views.init_error = r.error().describe();
   }
 }
 
-void views_shutdown() {
-  g_renderer.reset();
+void views_shutdown(Ui& ui) {
+  ui.views->renderer.reset();
 }
 
-void views_draw(const Ui& ui) {
-  ViewState& v = g_views;
-  if (!g_renderer) return;
+void views_draw(Ui& ui) {
+  Views& views = *ui.views;
+  ViewState& v = views.state;
+  render::SceneRenderer* renderer = views.renderer.get();
+  if (!renderer) return;
   if (v.pending_user_mesh) {
-    g_renderer->set_user_mesh(*v.pending_user_mesh);
+    renderer->set_user_mesh(*v.pending_user_mesh);
     v.pending_user_mesh.reset();
   }
   if (v.export_request) run_export(ui);
   // While something moves, draw without the smoothing pass (it costs on llvmpipe and a moving
   // picture does not need it); the settled frame after the motion is smoothed.
   const bool moving = v.drag != DragMode::None || ui.spinning;
-  g_renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
+  renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
   const ImGuiIO& io = ImGui::GetIO();
   const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
   if (!ui.scene_viewport.empty()) {
     render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
     apply_teaching_overlay(ui, &st);
     apply_chain_overlay(ui, &st);
-    g_renderer->draw(st, region_of(ui.scene_viewport, fb_h));
+    renderer->draw(st, region_of(ui.scene_viewport, fb_h));
   }
   if (!ui.gimbal_viewport.empty()) {
     render::SceneState st = scene_state(ui, ui.gimbal_viewport.width, ui.gimbal_viewport.height);
@@ -134,12 +139,12 @@ void views_draw(const Ui& ui) {
     st.rings = to_euler(ui.doc.pose(), rings_convention(ui));
     st.show_world_triad = false;
     st.show_grid = false;
-    g_renderer->draw(st, region_of(ui.gimbal_viewport, fb_h));
+    renderer->draw(st, region_of(ui.gimbal_viewport, fb_h));
   }
 }
 
 nlohmann::json views_dump(const Ui& ui) {
-  const ViewState& v = g_views;
+  const ViewState& v = view_state(ui);
   nlohmann::json j;
   j["camera"] = {{"azimuth_deg", v.camera.azimuth_rad * kDegPerRad},
                  {"elevation_deg", v.camera.elevation_rad * kDegPerRad},
@@ -155,15 +160,21 @@ nlohmann::json views_dump(const Ui& ui) {
       {"condition_number", std::isfinite(v.shown_condition_number) ? nlohmann::json(v.shown_condition_number)
                                                                    : nlohmann::json("inf")}};
   j["export"] = {{"message", v.export_message}, {"failed", v.export_failed}};
-  j["renderer"] = g_renderer ? "ok" : g_init_error;
+  j["renderer"] = ui.views->renderer ? "ok" : ui.views->init_error;
   return j;
 }
 
 #else
 
-void views_init() {}
-void views_shutdown() {}
-void views_draw(const Ui& ui) {
+Views::Views() = default;
+Views::~Views() = default;
+void views_init(Ui& ui) {
+  (void)ui;
+}
+void views_shutdown(Ui& ui) {
+  (void)ui;
+}
+void views_draw(Ui& ui) {
   (void)ui;
 }
 nlohmann::json views_dump(const Ui& ui) {

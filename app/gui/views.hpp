@@ -6,8 +6,11 @@
 //
 // The views' own state (camera, model, ghost toggle, the rings' convention, a drag in
 // progress, a pending export) is window state, not document state: it is not undone and
-// holds no rotation of its own. The pose always comes from the document.
+// holds no rotation of its own. The pose always comes from the document. All of it, and the
+// renderer, live in one Views object that the Ui owns (ui.views).
 #pragma once
+
+#include <memory>
 
 #include <nlohmann/json.hpp>
 
@@ -21,14 +24,20 @@
 #include "attiscope/render/scene.hpp"
 #endif
 
+namespace attiscope::render {
+class SceneRenderer;
+}
+
 namespace attiscope::gui {
 
-/// Called once the GL context exists / before it goes.
-void views_init();
-void views_shutdown();
+/// Creates the renderer (the GL context must be current; the window does it after its first
+/// frame) / drops it before the context goes. The views' state exists from the Ui's start.
+void views_init(Ui& ui);
+void views_shutdown(Ui& ui);
 /// Draws the Scene into ui.scene_viewport and the rings into ui.gimbal_viewport
 /// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport).
-void views_draw(const Ui& ui);
+/// Makes a pending PNG export.
+void views_draw(Ui& ui);
 /// What the views show, for test dumps (null without render/).
 nlohmann::json views_dump(const Ui& ui);
 
@@ -69,15 +78,44 @@ struct ViewState {
   double shown_condition_number = 0.0;
 };
 
-/// The views' state (one window per process).
-ViewState& view_state();
+/// The Scene panel's text fields (window state).
+struct SceneFields {
+  char mesh_path[512] = "";
+  std::string mesh_error;
+  char export_path[512] = "";
+  int export_w = 1024;
+  int export_h = 768;
+  bool confirm_overwrite = false;
+};
+
+#endif
+
+/// The window's 3D views: their state, the Scene panel's fields and the one renderer on the
+/// window's GL context (alive between views_init and views_shutdown). Owned by the Ui.
+struct Views {
+  Views();
+  ~Views();
+  Views(const Views&) = delete;
+  Views& operator=(const Views&) = delete;
+#ifdef ATTISCOPE_HAS_RENDER
+  ViewState state;
+  SceneFields fields;
+  std::unique_ptr<render::SceneRenderer> renderer;
+  std::string init_error;  ///< why there is no renderer
+#endif
+};
+
+#ifdef ATTISCOPE_HAS_RENDER
+/// The views' state.
+ViewState& view_state(Ui& ui);
+const ViewState& view_state(const Ui& ui);
 /// The Scene as drawn this frame: pose and reference from the document, frames from its
 /// house convention, and the view state. width/height: the scene region in pixels.
 render::SceneState scene_state(const Ui& ui, int width_px, int height_px);
 /// The rings' convention: the view's choice, else the house convention's.
 EulerConvention rings_convention(const Ui& ui);
 /// The CPU mesh drawn for the current model (for picking); nullptr before views_init.
-const render::Mesh* scene_mesh();
+const render::Mesh* scene_mesh(const Ui& ui);
 
 #endif
 

@@ -4,8 +4,10 @@
 #include <algorithm>
 #include <cmath>
 #include <cstddef>
+#include <cstdint>
 #include <map>
 #include <optional>
+#include <string>
 
 #include <Eigen/Geometry>
 
@@ -81,16 +83,21 @@ struct Target {
   gl::Texture color;
   gl::Renderbuffer depth;
   int width = 0, height = 0;
+  std::string picture;  ///< fingerprint of the scene the target holds (empty: none)
 
   void ensure(int w, int h) {
     if (fbo && w == width && h == height) return;
     width = w;
     height = h;
+    picture.clear();
     fbo = gl::make_framebuffer();
     color = gl::make_texture();
     depth = gl::make_renderbuffer();
     glBindTexture(GL_TEXTURE_2D, color.get());
-    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, w, h, 0, GL_RGBA, GL_UNSIGNED_BYTE, nullptr);
+    // Given BGRA data Mesa stores the texture as BGRA, the layout of an X window's back
+    // buffer, so the blit of a view into the window is a row copy; from an RGBA texture it
+    // is a shaded quad (measured with callgrind: more instructions than the whole view).
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, w, h, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
     glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_LINEAR);
     glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_LINEAR);
     glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_S, GL_CLAMP_TO_EDGE);
@@ -206,13 +213,16 @@ struct PixelBox {
 
 /// Screen bounds of everything drawn as a mesh (body and ghost by their model's bounding
 /// box, triads by their tips, rings by points around their circles), padded for tube and
-/// arrowhead radii and clipped to the view. nullopt when nothing is on screen.
-std::optional<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::AlignedBox3d& model_box, int w,
-                                          int h, const std::vector<Eigen::Vector3d>& extra_points) {
+/// arrowhead radii and clipped to the view: one box for the body with its triad, ghost,
+/// rings and `extra_points` (chain triads, placed models), one for the world triad on the
+/// ground (merged when that is no larger), so the empty ground between them is not smoothed.
+/// Empty when nothing is on screen.
+std::vector<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::AlignedBox3d& model_box, int w,
+                                        int h, const std::vector<Eigen::Vector3d>& extra_points) {
   constexpr double kPadPx = 3.0;
   constexpr double kPadUnits = 0.12;  // arrowheads, ring tubes and pivots stick out this far
   constexpr int kRingSamples = 24;
-  std::vector<Eigen::Vector3d> points = extra_points;
+  std::vector<Eigen::Vector3d> points = extra_points, ground_points;
   auto add_box = [&](const Eigen::Matrix3d& world_R_mesh) {
     for (int c = 0; c < 8; ++c) {
       points.push_back(world_R_mesh * model_box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
@@ -228,8 +238,8 @@ std::optional<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::Ali
     for (int a = 0; a < 3; ++a) points.push_back(body_axis_tip(st, a));
   }
   if (st.show_world_triad) {
-    points.push_back(world_triad_origin(st));
-    for (int a = 0; a < 3; ++a) points.push_back(world_axis_tip(st, a));
+    ground_points.push_back(world_triad_origin(st));
+    for (int a = 0; a < 3; ++a) ground_points.push_back(world_axis_tip(st, a));
   }
   if (st.rings) {
     const GimbalRings g = gimbal_rings(*st.rings);
@@ -248,23 +258,141 @@ std::optional<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::Ali
     }
   }
   const double focal_px = h / (2.0 * std::tan(st.camera.fov_y_rad / 2.0));
-  double x0 = 1e30, y0 = 1e30, x1 = -1e30, y1 = -1e30;
   const Eigen::Vector3d eye = camera_pose(st.camera, st.world).eye;
-  for (const Eigen::Vector3d& pt : points) {
-    const Projected p = project_to_pixel(st.camera, st.world, w, h, pt);
-    if (!p.in_front) return PixelBox{0, 0, w, h};  // something is behind the camera: smooth everything
-    const double pad = kPadPx + kPadUnits * focal_px / std::max((pt - eye).norm() - kPadUnits, 1e-3);
-    x0 = std::min(x0, p.pixel.x() - pad);
-    y0 = std::min(y0, p.pixel.y() - pad);
-    x1 = std::max(x1, p.pixel.x() + pad);
-    y1 = std::max(y1, p.pixel.y() + pad);
+  bool everything = false;
+  auto bounds = [&](const std::vector<Eigen::Vector3d>& pts) -> std::optional<PixelBox> {
+    if (pts.empty()) return std::nullopt;
+    double x0 = 1e30, y0 = 1e30, x1 = -1e30, y1 = -1e30;
+    for (const Eigen::Vector3d& pt : pts) {
+      const Projected p = project_to_pixel(st.camera, st.world, w, h, pt);
+      if (!p.in_front) {  // something is behind the camera: smooth everything
+        everything = true;
+        return std::nullopt;
+      }
+      const double pad = kPadPx + kPadUnits * focal_px / std::max((pt - eye).norm() - kPadUnits, 1e-3);
+      x0 = std::min(x0, p.pixel.x() - pad);
+      y0 = std::min(y0, p.pixel.y() - pad);
+      x1 = std::max(x1, p.pixel.x() + pad);
+      y1 = std::max(y1, p.pixel.y() + pad);
+    }
+    const int ix0 = std::clamp(static_cast<int>(std::floor(x0)), 0, w);
+    const int iy0 = std::clamp(static_cast<int>(std::floor(y0)), 0, h);
+    const int ix1 = std::clamp(static_cast<int>(std::ceil(x1)), 0, w);
+    const int iy1 = std::clamp(static_cast<int>(std::ceil(y1)), 0, h);
+    if (ix1 <= ix0 || iy1 <= iy0) return std::nullopt;
+    return PixelBox{ix0, iy0, ix1 - ix0, iy1 - iy0};
+  };
+  const std::optional<PixelBox> body = bounds(points), ground = bounds(ground_points);
+  if (everything) return {PixelBox{0, 0, w, h}};
+  std::vector<PixelBox> boxes;
+  if (body) boxes.push_back(*body);
+  if (ground) boxes.push_back(*ground);
+  if (boxes.size() == 2) {
+    // Overlapping boxes are fine (the pass reads the unsmoothed picture); merge only when
+    // the union costs no more pixels than the two.
+    const PixelBox& a = boxes[0];
+    const PixelBox& b = boxes[1];
+    const int ux0 = std::min(a.x, b.x), uy0 = std::min(a.y, b.y);
+    const int ux1 = std::max(a.x + a.width, b.x + b.width), uy1 = std::max(a.y + a.height, b.y + b.height);
+    const long long area_union = static_cast<long long>(ux1 - ux0) * (uy1 - uy0);
+    const long long area_sum =
+        static_cast<long long>(a.width) * a.height + static_cast<long long>(b.width) * b.height;
+    if (area_union <= area_sum) boxes = {PixelBox{ux0, uy0, ux1 - ux0, uy1 - uy0}};
   }
-  const int ix0 = std::clamp(static_cast<int>(std::floor(x0)), 0, w);
-  const int iy0 = std::clamp(static_cast<int>(std::floor(y0)), 0, h);
-  const int ix1 = std::clamp(static_cast<int>(std::ceil(x1)), 0, w);
-  const int iy1 = std::clamp(static_cast<int>(std::ceil(y1)), 0, h);
-  if (ix1 <= ix0 || iy1 <= iy0) return std::nullopt;
-  return PixelBox{ix0, iy0, ix1 - ix0, iy1 - iy0};
+  return boxes;
+}
+/// Everything of a SceneState that shows in the offscreen scene, as bytes: two states with
+/// the same fingerprint (and the same palette and meshes) give the same picture, so a view
+/// whose pose, camera, size and overlays did not change is not drawn again.
+class Fingerprint {
+ public:
+  void add(double v) { bytes_.append(reinterpret_cast<const char*>(&v), sizeof v); }
+  void add(const std::string& t) {
+    add(static_cast<double>(t.size()));
+    bytes_ += t;
+  }
+  void add(const Eigen::Vector3d& v) {
+    for (int i = 0; i < 3; ++i) add(v[i]);
+  }
+  void add(const Rotation& r) {
+    const Eigen::Quaterniond q = r.stored_quaternion();
+    add(q.w());
+    add(q.x());
+    add(q.y());
+    add(q.z());
+  }
+  const std::string& bytes() const { return bytes_; }
+
+ private:
+  std::string bytes_;
+};
+
+std::string scene_fingerprint(const SceneState& st, const Palette& palette,
+                              std::uint64_t user_mesh_generation) {
+  Fingerprint f;
+  f.add(st.world_R_body);
+  f.add(st.ghost_world_R_body ? 1.0 : 0.0);
+  if (st.ghost_world_R_body) f.add(*st.ghost_world_R_body);
+  f.add(static_cast<double>(st.model.kind));
+  f.add(st.model.user_mesh ? static_cast<double>(user_mesh_generation) : -1.0);
+  const Camera& c = st.camera;
+  f.add(c.target);
+  for (double v : {c.azimuth_rad, c.elevation_rad, c.distance, c.fov_y_rad, c.near_plane, c.far_plane})
+    f.add(v);
+  f.add(st.world.name);
+  f.add(st.world.up);
+  for (const std::string& l : st.world.axis_labels) f.add(l);
+  f.add(st.body.name);
+  f.add(st.body.front);
+  f.add(st.body.top);
+  f.add(st.body.right);
+  for (const std::string& l : st.body.axis_labels) f.add(l);
+  f.add(st.rings ? 1.0 : 0.0);
+  if (st.rings) {
+    f.add(st.rings->convention.name());
+    f.add(st.rings->angles_rad);
+    f.add(st.rings->lock_margin_rad);
+    f.add(st.rings->at_lock ? 1.0 : 0.0);
+  }
+  f.add(static_cast<double>(st.highlight));
+  for (bool b : {st.show_grid, st.show_world_triad, st.show_body_triad, st.show_labels}) f.add(b ? 1.0 : 0.0);
+  f.add(static_cast<double>(st.faded_triads.size()));
+  for (const FadedTriad& t : st.faded_triads) {
+    f.add(t.world_R_frame);
+    f.add(static_cast<double>(t.alpha));
+  }
+  f.add(static_cast<double>(st.turns.size()));
+  for (const TurnHighlight& t : st.turns) {
+    f.add(t.axis_world);
+    f.add(t.start_world_R_body);
+    for (double v : {t.angle_rad, t.shown_rad, t.radius, t.show_axis ? 1.0 : 0.0}) f.add(v);
+    f.add(t.label);
+  }
+  f.add(static_cast<double>(st.chain.size()));
+  for (const ChainFrameMark& m : st.chain) {
+    f.add(m.name);
+    f.add(m.parent);
+    f.add(static_cast<double>(m.depth));
+    f.add(static_cast<double>(m.branch));
+    f.add(m.display_R_frame);
+    f.add(m.origin);
+    f.add(m.lever_arm_origin);
+    f.add(m.selected ? 1.0 : 0.0);
+    f.add(m.scale);
+    for (const std::string& l : m.axis_labels) f.add(l);
+  }
+  f.add(static_cast<double>(st.props.size()));
+  for (const PlacedModel& m : st.props) {
+    f.add(static_cast<double>(m.kind));
+    for (int i = 0; i < 9; ++i) f.add(m.world_R_model(i / 3, i % 3));
+    f.add(m.offset);
+  }
+  f.add(static_cast<double>(st.width_px));
+  f.add(static_cast<double>(st.height_px));
+  for (const auto* colour : {&palette.background, &palette.grid, &palette.axis_x, &palette.axis_y,
+                             &palette.axis_z, &palette.ghost, &palette.highlight, &palette.label_outline})
+    for (float v : *colour) f.add(static_cast<double>(v));
+  return f.bytes();
 }
 }  // namespace
 
@@ -273,6 +401,7 @@ struct SceneRenderer::State {
   Palette palette;
   std::vector<std::string> warnings;
   std::size_t triangles = 0;
+  bool reused = false;  ///< the last draw showed the kept picture of an unchanged scene
 
   gl::Program mesh_program, grid_program, post_program, text_program;
   MeshUniforms mu{};
@@ -283,7 +412,24 @@ struct SceneRenderer::State {
   std::map<ModelKind, Mesh> cpu_models;
   Mesh user_cpu;
   GpuMesh user_gpu;
-  Target scene_target, export_target;
+  std::uint64_t user_mesh_generation = 0;  ///< counts set_user_mesh calls
+  /// Offscreen targets of the views drawn lately, one per size (the window's Scene and Gimbal
+  /// views, an export), most recent first.
+  std::vector<std::unique_ptr<Target>> view_targets;
+  Target export_target;
+  Target& view_target(int w, int h) {
+    constexpr std::size_t kKeptTargets = 3;
+    auto it = std::find_if(view_targets.begin(), view_targets.end(),
+                           [&](const std::unique_ptr<Target>& t) { return t->width == w && t->height == h; });
+    if (it == view_targets.end()) {
+      if (view_targets.size() >= kKeptTargets) view_targets.pop_back();
+      view_targets.insert(view_targets.begin(), std::make_unique<Target>());
+      view_targets.front()->ensure(w, h);
+    } else {
+      std::rotate(view_targets.begin(), it, it + 1);
+    }
+    return *view_targets.front();
+  }
 
   detail::BakedFont font;
   bool font_tried = false;
@@ -479,14 +625,19 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   view_proj = to_gl(projection_matrix(st.camera, w, h) * view_matrix(st.camera, world));
   const Eigen::Vector3d up = world.up.normalized();
 
-  // Background: a plain clear (a software rasteriser clears tiles far faster than it
-  // shades a full-screen gradient).
+  // Background: a plain clear of the whole offscreen target. llvmpipe fills a whole buffer's
+  // colour, depth and stencil together at memory speed (about 0.5 ms for 900x700 here),
+  // while a scissored clear of a region, or a background quad, is shaded pixel by pixel
+  // (3-5 ms); so a view is drawn offscreen and copied into its region.
+  glDisable(GL_SCISSOR_TEST);
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_BLEND);
   glDepthMask(GL_TRUE);
+  glStencilMask(0xFF);
   glClearDepth(1.0);
+  glClearStencil(0);
   glClearColor(palette.background[0], palette.background[1], palette.background[2], 1.0f);
-  glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT);
+  glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
 
   const Eigen::Vector3d ground = world_triad_origin(st);
   glEnable(GL_DEPTH_TEST);
@@ -705,13 +856,36 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   GLint prev_draw = 0, prev_read = 0;
   glGetIntegerv(GL_DRAW_FRAMEBUFFER_BINDING, &prev_draw);
   glGetIntegerv(GL_READ_FRAMEBUFFER_BINDING, &prev_read);
+  const auto dest = static_cast<GLuint>(prev_draw);
   const int w = region.width, h = region.height;
-  const int gl_y = region.framebuffer_height - region.y - region.height;
+  const int gl_x = region.x, gl_y = region.framebuffer_height - region.y - region.height;
   s.collect_labels(state, w, h);
-  glViewport(region.x, gl_y, w, h);
+
+  // The scene, offscreen at the region's size; kept from the last draw of this size when
+  // nothing in it changed.
+  SceneState sized = state;
+  sized.width_px = w;
+  sized.height_px = h;
+  std::string picture = scene_fingerprint(sized, s.palette, s.user_mesh_generation);
+  Target& t = s.view_target(w, h);
+  s.reused = s.options.reuse_unchanged && t.picture == picture;
+  if (!s.reused) {
+    glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
+    glViewport(0, 0, w, h);
+    s.render_scene(state, w, h);
+    t.picture = std::move(picture);
+  }
+
+  // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the
+  // smoothing pass over the part the meshes can cover, then the labels on top (unsmoothed).
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, dest);
+  glDisable(GL_SCISSOR_TEST);
+  glBlitFramebuffer(0, 0, w, h, gl_x, gl_y, gl_x + w, gl_y + h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+  glViewport(gl_x, gl_y, w, h);
   glEnable(GL_SCISSOR_TEST);
-  glScissor(region.x, gl_y, w, h);
-  s.render_scene(state, w, h);
+  glScissor(gl_x, gl_y, w, h);
+  glDisable(GL_DEPTH_TEST);
   if (s.options.antialiasing == Antialiasing::Post) {
     // Smooth only the pixels the meshes can cover: the background and the grid are smooth
     // already (the grid's lines are antialiased analytically), and on a software rasteriser
@@ -723,32 +897,23 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
         extra.push_back(p.offset +
                         p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
     }
-    const auto box = mesh_pixel_bounds(state, s.model_box(state.model), w, h, extra);
-    if (box) {
-      const int bx = box->x, by = box->y, bw = box->width, bh = box->height;
-      const int bgl_x = region.x + bx, bgl_y = region.framebuffer_height - region.y - by - bh;
-      s.scene_target.ensure(bw, bh);
-      glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
-      glBindFramebuffer(GL_DRAW_FRAMEBUFFER, s.scene_target.fbo.get());
-      glDisable(GL_SCISSOR_TEST);
-      glBlitFramebuffer(bgl_x, bgl_y, bgl_x + bw, bgl_y + bh, 0, 0, bw, bh, GL_COLOR_BUFFER_BIT, GL_NEAREST);
-      glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
-      glViewport(bgl_x, bgl_y, bw, bh);
-      glEnable(GL_SCISSOR_TEST);
-      glScissor(bgl_x, bgl_y, bw, bh);
+    const std::vector<PixelBox> boxes = mesh_pixel_bounds(state, s.model_box(state.model), w, h, extra);
+    if (!boxes.empty()) {
       const GLuint pp = s.post_program.get();
       glUseProgram(pp);
       glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
-      glUniform2f(glGetUniformLocation(pp, "u_origin"), static_cast<float>(bgl_x), static_cast<float>(bgl_y));
-      glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(bw),
-                  1.0f / static_cast<float>(bh));
+      glUniform2f(glGetUniformLocation(pp, "u_origin"), static_cast<float>(gl_x), static_cast<float>(gl_y));
+      glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
+                  1.0f / static_cast<float>(h));
       glActiveTexture(GL_TEXTURE0);
-      glBindTexture(GL_TEXTURE_2D, s.scene_target.color.get());
+      glBindTexture(GL_TEXTURE_2D, t.color.get());
       glBindVertexArray(s.empty_vao.get());
-      glDrawArrays(GL_TRIANGLES, 0, 3);
+      for (const PixelBox& box : boxes) {
+        glScissor(gl_x + box.x, gl_y + (h - box.y - box.height), box.width, box.height);
+        glDrawArrays(GL_TRIANGLES, 0, 3);
+      }
       glBindTexture(GL_TEXTURE_2D, 0);
-      glViewport(region.x, gl_y, w, h);
-      glScissor(region.x, gl_y, w, h);
+      glScissor(gl_x, gl_y, w, h);
       gl::check("post pass");
     }
   }
@@ -760,7 +925,7 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   glDepthMask(GL_TRUE);
   glUseProgram(0);
   glBindVertexArray(0);
-  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, dest);
   glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
   gl::check("draw");
 }
@@ -802,6 +967,7 @@ void SceneRenderer::set_antialiasing(Antialiasing antialiasing) {
 }
 
 void SceneRenderer::set_user_mesh(const Mesh& mesh) {
+  ++state_->user_mesh_generation;
   state_->user_cpu = mesh;
   state_->user_box = State::bounds(mesh);
   state_->user_gpu = upload(mesh);
@@ -820,6 +986,9 @@ const std::vector<std::string>& SceneRenderer::warnings() const {
 }
 std::size_t SceneRenderer::last_triangle_count() const {
   return state_->triangles;
+}
+bool SceneRenderer::last_draw_reused() const {
+  return state_->reused;
 }
 
 }  // namespace attiscope::render

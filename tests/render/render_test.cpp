@@ -3,6 +3,7 @@
 // never a golden image.
 #include <gtest/gtest.h>
 
+#include <array>
 #include <cmath>
 #include <memory>
 
@@ -90,6 +91,48 @@ TEST_F(RenderTest, IdentityAndQuarterTurnDiffer) {
   // And the same pose twice gives the same picture (the renderer keeps no hidden state).
   const Image c = renderer_->render_image(s);
   EXPECT_EQ(b.rgba, c.rgba);
+}
+
+// A view whose state did not change is shown from the kept offscreen scene; any change of
+// pose, camera or palette draws it again, and a kept picture equals a freshly drawn one.
+TEST_F(RenderTest, KeptSceneIsReusedOnlyWhenNothingChanged) {
+  SceneState s;
+  s.width_px = 200;
+  s.height_px = 150;
+  s.world_R_body = elementary_rotation(Axis::X, 30.0 * kDeg);
+  const Image first = renderer_->render_image(s);
+  EXPECT_FALSE(renderer_->last_draw_reused());
+  const Image again = renderer_->render_image(s);
+  EXPECT_TRUE(renderer_->last_draw_reused());
+  EXPECT_EQ(first.rgba, again.rgba);
+
+  SceneState turned = s;
+  turned.world_R_body = elementary_rotation(Axis::X, 31.0 * kDeg);
+  const Image moved = renderer_->render_image(turned);
+  EXPECT_FALSE(renderer_->last_draw_reused());
+  EXPECT_NE(moved.rgba, first.rgba);
+
+  SceneState orbited = s;
+  orbited.camera.orbit(0.01, 0.0);
+  (void)renderer_->render_image(orbited);
+  EXPECT_FALSE(renderer_->last_draw_reused());
+
+  (void)renderer_->render_image(s);  // keep s again, then change only the palette
+  const std::array<float, 3> background = renderer_->palette().background;
+  renderer_->palette().background = {0.2f, 0.3f, 0.4f};
+  const Image recoloured = renderer_->render_image(s);
+  EXPECT_FALSE(renderer_->last_draw_reused());
+  EXPECT_NE(recoloured.rgba, first.rgba);
+  renderer_->palette().background = background;
+
+  RendererOptions fresh_options;
+  fresh_options.reuse_unchanged = false;
+  auto fresh = SceneRenderer::create(fresh_options);
+  ASSERT_TRUE(fresh.ok()) << fresh.error().describe();
+  (void)fresh.value()->render_image(s);
+  const Image drawn = fresh.value()->render_image(s);
+  EXPECT_FALSE(fresh.value()->last_draw_reused());
+  EXPECT_EQ(drawn.rgba, first.rgba);
 }
 
 // A 90-degree turn about world z takes the body x axis onto the world y axis (R_z(90) e_x =

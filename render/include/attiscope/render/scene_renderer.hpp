@@ -6,9 +6,13 @@
 // life; create, use and destroy it on that context's thread. It never includes ImGui.
 //
 // Two targets:
-//  - draw(): into a region of the framebuffer bound now (the window's), which is much
-//    cheaper than an offscreen texture shown through ImGui::Image;
-//  - render_image(): into its own offscreen target, read back for export.
+//  - draw(): into a region of the framebuffer bound now (the window's). The scene is drawn
+//    into an offscreen target of the region's size (one whole-buffer clear, which llvmpipe
+//    does at memory speed, where a scissored clear or a background quad is shaded pixel by
+//    pixel), copied into the region by a blit (a row copy, no shading, no blending, unlike
+//    an ImGui::Image quad), then smoothed and labelled in place. An unchanged scene is not
+//    drawn again (RendererOptions::reuse_unchanged);
+//  - render_image(): the same into its own export target, read back.
 #pragma once
 
 #include <array>
@@ -39,6 +43,9 @@ enum class Antialiasing {
 
 struct RendererOptions {
   Antialiasing antialiasing = Antialiasing::Post;
+  /// Keep each view's offscreen scene and show it again when the next draw of that size has
+  /// the same pose, camera, overlays and palette (only the smoothing and labels are redone).
+  bool reuse_unchanged = true;
 };
 
 /// RGB palette of the scene (deliberately ours; readable on a projector).
@@ -83,8 +90,10 @@ class SceneRenderer {
   Palette& palette();
   /// Things that went wrong without stopping the picture (no label font found, ...).
   const std::vector<std::string>& warnings() const;
-  /// Triangles drawn by the last draw()/render_image().
+  /// Triangles drawn by the last draw()/render_image() (0 when it reused a kept scene).
   std::size_t last_triangle_count() const;
+  /// Did the last draw()/render_image() show the kept scene of an unchanged state?
+  bool last_draw_reused() const;
 
  private:
   SceneRenderer();
