@@ -160,6 +160,28 @@ TEST_F(TrackCliTest, ExportedCleanCopyRereadsToTheSameRotationsWithoutSignFlips)
   }
 }
 
+TEST_F(TrackCliTest, JsonLinesLogGivesTheSameEventsAndNamesItsBadLines) {
+  Track t = Rover(600);
+  test::ScaleSamples(&t, 300, t.size(), -1.0);  // a sign flip at sample 300
+  std::ofstream f(Path("log.jsonl"));
+  for (std::size_t i = 0; i < t.size(); ++i) {
+    f << "{\"time_s\": " << Num(t.time_s[i]) << ", \"q\": {\"w\": " << Num(t.qw[i])
+      << ", \"x\": " << Num(t.qx[i]) << ", \"y\": " << Num(t.qy[i]) << ", \"z\": " << Num(t.qz[i])
+      << "}, \"mode\": \"auto\"}\n";
+    if (i == 100) f << "{\"time_s\": 2.01, \"q\": {\"w\": 1}\n";  // file line 102: cut short
+  }
+  f.close();
+  const CliRun r = RunTrack({Path("log.jsonl"), "--json"});
+  ASSERT_EQ(r.code, 0) << r.err;
+  const nlohmann::json j = nlohmann::json::parse(r.out);
+  EXPECT_EQ(j["samples"], 600);
+  ASSERT_EQ(j["bad_rows"].size(), 1u) << j["bad_rows"].dump();
+  EXPECT_EQ(j["bad_rows"][0]["line"], 102);
+  ASSERT_EQ(j["events"].size(), 1u) << j["events"].dump();
+  EXPECT_EQ(j["events"][0]["sample"], 300);
+  EXPECT_EQ(j["events"][0]["kind"], "sign_flip");
+}
+
 TEST_F(TrackCliTest, BadUsageAndMissingFilesExitWith2) {
   EXPECT_EQ(RunTrack({}).code, 2);
   EXPECT_EQ(RunTrack({Path("none.csv")}).code, 2);
