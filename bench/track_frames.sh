@@ -5,6 +5,7 @@
 # the plots draw; prints the median and 95th-percentile frame time at 1600x900. Runs under
 # Xvfb when there is no display.
 # Usage: bench/track_frames.sh [path/to/attiscope] [frames] [samples]
+# TRACK_LOG=FILE keeps the generated log in FILE (made when missing) for the next run.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 exe=${1:-build/app/attiscope}
@@ -12,8 +13,8 @@ frames=${2:-300}
 samples=${3:-10000000}
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
-log=$work/tumble.csv
-/usr/bin/python3 - "$log" "$samples" <<'PY'
+log=${TRACK_LOG:-$work/tumble.csv}
+[ -s "$log" ] || /usr/bin/python3 - "$log" "$samples" <<'PY'
 import sys
 import numpy as np
 path, n = sys.argv[1], int(sys.argv[2])

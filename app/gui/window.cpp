@@ -352,6 +352,7 @@ void script_input(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err
     if (!track_job_running(ui)) return finish();
     if (++p.phase * kScriptWaitS > limit_s) return fail("the Track panel's job did not finish in time");
     std::this_thread::sleep_for(std::chrono::duration<double>(kScriptWaitS));
+  } else if (s.op == "type") {
     for (unsigned char c : s.arg) io.AddInputCharacter(c);
     finish();
   } else if (s.op == "key") {

@@ -222,6 +222,26 @@ TEST(TrackDemoLogTest, RoverYardRunGivesTheListedEvents) {
   EXPECT_EQ(got, want) << j["events"].dump();
 }
 
+TEST(TrackDemoLogTest, CameraDollyJsonLinesGivesTheListedEvents) {
+  const CliRun r = RunTrack({DemoLog("camera_dolly_pan.jsonl"), "--json", "--rate-limit", "60"});
+  ASSERT_EQ(r.code, 0) << r.err;
+  const nlohmann::json j = nlohmann::json::parse(r.out);
+  EXPECT_EQ(j["samples"], 360);
+  ASSERT_EQ(j["bad_rows"].size(), 1u);
+  EXPECT_EQ(j["bad_rows"][0]["line"], 203);  // comment line, then sample i on line i + 2
+  std::vector<std::pair<std::size_t, std::string>> got;
+  for (const auto& e : j["events"])
+    got.emplace_back(e["sample"].get<std::size_t>(), e["kind"].get<std::string>());
+  // Derived from the script's motion (scripts/make_demo_logs.py), by hand:
+  // - the joint: roll 4 deg for the one frame at t = 5 s (sample 150), about 120 deg/s up and
+  //   down again: one run of two samples from 150 (the pan itself turns under 20 deg/s);
+  // - yaw 40 + 200 (t / 12)^1.2 passes 180 at t = 12 * 0.7^(1/1.2) = 8.916 s, first sample
+  //   after it 268 (t = 8.933); the pose written from the wrapped yaw flips the sign there.
+  const std::vector<std::pair<std::size_t, std::string>> want = {
+      {150, "fast_motion"}, {268, "sign_flip"}, {268, "wrap"}};
+  EXPECT_EQ(got, want) << j["events"].dump();
+}
+
 TEST(TrackDemoLogTest, GimbalSweepIsNearLockInZyxOnly) {
   const test::CliRun r = RunTrack({DemoLog("gimbal_tilt_sweep.csv"), "--json", "--euler", "ZYX"});
   ASSERT_EQ(r.code, 0) << r.err;
