@@ -694,7 +694,7 @@ void draw_columns(Ui& ui) {
       changed = true;
     }
   }
-  ImGui::TextDisabled("Euler-angle columns are not read as a track yet: export them as quaternions first.");
+  ImGui::TextDisabled("Euler-angle columns are not read as a track yet: convert such a log to quaternions first.");
   if (changed) {
     bool ok = true;
     const std::size_t used = m.form == TrackForm::QuatWxyz ? 4 : 9;
