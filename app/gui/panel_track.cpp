@@ -198,7 +198,10 @@ void take_finished_job(Ui& ui) {
   } else {
     const bool fresh = job->reads_file;
     st.track = std::move(job->track);
-    if (job->plot) st.plot = std::move(job->plot);
+    if (job->plot) {
+      st.plot = std::move(job->plot);
+      ++st.plot_generation;
+    }
     if (job->diagnosis) st.diagnosis = std::move(*job->diagnosis);
     st.error.clear();
     if (fresh) {
@@ -289,11 +292,46 @@ std::vector<PlotSpec> plot_specs(const Ui& ui) {
   return out;
 }
 
+/// A pixel column whose (joined) bar is at most this tall is drawn as part of a line.
+constexpr float kThinBarPx = 2.0f;
+/// Line points within this distance (pixels) of the simplified line are dropped.
+constexpr float kLineTolerancePx = 0.5f;
+/// A simplified line keeps at least one point in this many (bounds the checks per point).
+constexpr std::size_t kMaxDroppedRun = 48;
+
+/// Drops the points of a polyline that lie within kLineTolerancePx of the line from the last
+/// kept point to the next candidate (each dropped point is checked against every candidate).
+void simplify_line(std::vector<ImVec2>* points) {
+  std::vector<ImVec2>& p = *points;
+  if (p.size() < 3) return;
+  std::size_t kept = 0;  // index in p of the last point written out
+  std::size_t out = 1;
+  for (std::size_t i = 2; i < p.size(); ++i) {
+    const ImVec2 a = p[kept], b = p[i];
+    const float dx = b.x - a.x, dy = b.y - a.y;
+    const float len = std::max(1e-6f, std::sqrt(dx * dx + dy * dy));
+    bool fits = i - kept <= kMaxDroppedRun;
+    for (std::size_t j = kept + 1; fits && j < i; ++j) {
+      const float d = std::abs((p[j].x - a.x) * dy - (p[j].y - a.y) * dx) / len;
+      if (d > kLineTolerancePx) fits = false;
+    }
+    if (!fits) {
+      kept = i - 1;
+      p[out++] = p[kept];
+    }
+  }
+  p[out++] = p.back();
+  p.resize(out);
+}
+
 float y_of(float v, float lo, float hi, float top, float bottom) {
   return bottom - (v - lo) / (hi - lo) * (bottom - top);
 }
 
-void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float height) {
+/// Draws one plot from its channels' envelopes (computed for the view st.view_t0..t1 at one
+/// column per point of the plot's width); wheel and drag change the view for the next frame.
+void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float height,
+               const PlotEnvelope* env) {
   TrackPanelState& st = ui.track;
   const Track& track = *st.track;
   const TrackPlotData& plot = *st.plot;
@@ -307,7 +345,7 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
   const bool hovered = ImGui::IsItemHovered();
   const ImGuiIO& io = ImGui::GetIO();
   const ImVec2 p1(p0.x + size.x, p0.y + size.y);
-  double t0 = st.view_t0, t1 = st.view_t1;
+  const double t0 = st.view_t0, t1 = st.view_t1;
   const double span = t1 - t0;
   auto t_at = [&](float x) { return t0 + (static_cast<double>(x - p0.x) / width_d) * span; };
   auto x_at = [&](double t) { return p0.x + static_cast<float>((t - t0) / span * width_d); };
@@ -336,16 +374,12 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
       st.playing = false;
     }
   }
-  t0 = st.view_t0;
-  t1 = st.view_t1;
-
-  const auto columns = static_cast<std::size_t>(std::max(1.0f, width));
-  const std::vector<PlotEnvelope> env = plot_envelopes(track, plot, spec.channels, t0, t1, columns);
   float lo = spec.lo, hi = spec.hi;
   if (!spec.fixed) {
     lo = INFINITY;
     hi = -INFINITY;
-    for (const PlotEnvelope& e : env) {
+    for (std::size_t k = 0; k < spec.channels.size(); ++k) {
+      const PlotEnvelope& e = env[k];
       if (e.points) {
         for (std::size_t i = e.first; i <= e.last && i < track.size(); ++i) {
           for (PlotChannel ch : spec.channels) {
@@ -365,7 +399,7 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
     }
     if (!(hi >= lo)) lo = 0.0f, hi = 1.0f;
     const float pad = std::max(1e-3f, 0.05f * (hi - lo));
-    lo -= pad;
+    lo = lo >= 0.0f ? std::max(0.0f, lo - pad) : lo - pad;  // a rate never goes below zero
     hi += pad;
   }
   dl->PushClipRect(p0, p1, true);
@@ -384,7 +418,8 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
     const float yz = y_of(0.0f, lo, hi, p0.y, p1.y);
     dl->AddLine(ImVec2(p0.x, yz), ImVec2(p1.x, yz), IM_COL32(80, 90, 110, 255));
   }
-  for (std::size_t k = 0; k < env.size(); ++k) {
+  std::vector<ImVec2> thin;  // the current run of thin columns, as points
+  for (std::size_t k = 0; k < spec.channels.size(); ++k) {
     const PlotEnvelope& e = env[k];
     const ImU32 col = spec.colours[k % spec.colours.size()];
     if (e.points) {
@@ -403,12 +438,26 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
       }
       continue;
     }
-    // One bar per pixel column from min to max, joined to the neighbour so the trace is whole.
+    // One bar per pixel column from min to max, joined to the neighbour so the trace is whole;
+    // where the bars are thin (a smooth stretch) a simplified line instead, so a calm trace
+    // costs a few segments rather than a quad per pixel (llvmpipe pays per triangle).
     float prev_lo = NAN, prev_hi = NAN;
+    thin.clear();
+    auto flush = [&] {
+      if (thin.size() >= 2) {
+        simplify_line(&thin);
+        dl->AddPolyline(thin.data(), static_cast<int>(thin.size()), col, ImDrawFlags_None, 1.5f);
+      } else if (thin.size() == 1) {
+        dl->AddRectFilled(ImVec2(thin[0].x - 0.5f, thin[0].y - 0.75f),
+                          ImVec2(thin[0].x + 0.5f, thin[0].y + 0.75f), col);
+      }
+      thin.clear();
+    };
     for (std::size_t c = 0; c < e.min.size(); ++c) {
       float a = e.min[c], b = e.max[c];
       if (!std::isfinite(a) || !std::isfinite(b)) {
         prev_lo = prev_hi = NAN;
+        flush();
         continue;
       }
       if (std::isfinite(prev_lo)) {
@@ -419,8 +468,14 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
       prev_hi = e.max[c];
       const float x = p0.x + static_cast<float>(c);
       const float ya = y_of(a, lo, hi, p0.y, p1.y), yb = y_of(b, lo, hi, p0.y, p1.y);
+      if (ya - yb <= kThinBarPx) {
+        thin.push_back(ImVec2(x + 0.5f, y_of(0.5f * (e.min[c] + e.max[c]), lo, hi, p0.y, p1.y)));
+        continue;
+      }
+      flush();
       dl->AddRectFilled(ImVec2(x, yb), ImVec2(x + 1.0f, std::max(ya, yb + 1.0f)), col);
     }
+    flush();
   }
   // The current sample.
   if (st.sample < track.size()) {
@@ -498,13 +553,33 @@ void draw_plots(Ui& ui) {
   const float avail = ImGui::GetContentRegionAvail().y - ImGui::GetTextLineHeightWithSpacing();
   const float h = std::max(kMinPlotHeight, (avail - gap * static_cast<float>(specs.size() - 1)) /
                                                static_cast<float>(specs.size()));
+  // The envelopes of every shown channel, computed once per change of view, width or plot
+  // data (scrubbing and playing leave them as they are).
+  std::vector<PlotChannel> channels;
+  std::vector<std::size_t> first_channel;
+  for (const PlotSpec& s : specs) {
+    first_channel.push_back(channels.size());
+    channels.insert(channels.end(), s.channels.begin(), s.channels.end());
+  }
+  const auto columns = static_cast<std::size_t>(std::max(16.0f, ImGui::GetContentRegionAvail().x));
+  TrackPlotCache& cache = st.plot_cache;
+  if (cache.generation != st.plot_generation || cache.t0 != st.view_t0 || cache.t1 != st.view_t1 ||
+      cache.columns != columns || cache.channels != channels) {
+    cache.envelopes = plot_envelopes(*st.track, *st.plot, channels, st.view_t0, st.view_t1, columns);
+    cache.generation = st.plot_generation;
+    cache.t0 = st.view_t0;
+    cache.t1 = st.view_t1;
+    cache.columns = columns;
+    cache.channels = channels;
+  }
   const std::string unit_note = st.mode == AngleMode::Wrapped     ? "wrapped"
                                 : st.mode == AngleMode::ZeroTo360 ? "0-360"
                                                                   : "unwrapped";
-  for (const PlotSpec& s : specs) {
+  for (std::size_t k = 0; k < specs.size(); ++k) {
+    const PlotSpec& s = specs[k];
     std::string title = s.title;
     if (std::string(s.key) == "euler") title = "Euler " + c.name() + " (deg, " + unit_note + ")";
-    draw_plot(ui, s, title, h);
+    draw_plot(ui, s, title, h, cache.envelopes.data() + first_channel[k]);
   }
   ImGui::TextDisabled("view %s .. %s s; wheel zooms, drag pans, click jumps; red: near lock",
                       num(st.view_t0, 7).c_str(), num(st.view_t1, 7).c_str());
@@ -694,7 +769,8 @@ void draw_columns(Ui& ui) {
       changed = true;
     }
   }
-  ImGui::TextDisabled("Euler-angle columns are not read as a track yet: convert such a log to quaternions first.");
+  ImGui::TextDisabled(
+      "Euler-angle columns are not read as a track yet: convert such a log to quaternions first.");
   if (changed) {
     bool ok = true;
     const std::size_t used = m.form == TrackForm::QuatWxyz ? 4 : 9;

@@ -50,6 +50,15 @@ struct TrackJob {
   ~TrackJob();
 };
 
+/// The plots' envelopes of the last frame, and what they were computed for.
+struct TrackPlotCache {
+  std::size_t generation = 0;  ///< TrackPanelState::plot_generation they came from
+  double t0 = 0.0, t1 = 0.0;
+  std::size_t columns = 0;
+  std::vector<PlotChannel> channels;
+  std::vector<PlotEnvelope> envelopes;  ///< one per channel, in `channels` order
+};
+
 /// The Track panel's inner tabs.
 enum class TrackTab { Plots, Events, Columns, BadRows, Export };
 
@@ -62,6 +71,8 @@ struct TrackPanelState {
 
   std::shared_ptr<const Track> track;
   std::unique_ptr<TrackPlotData> plot;
+  std::size_t plot_generation = 1;  ///< counts replacements of `plot`
+  TrackPlotCache plot_cache;
   TrackDiagnosis diagnosis;
   std::unique_ptr<TrackJob> job;
   bool reanalyse_pending = false;  ///< a change came while a job ran: re-analyse after it

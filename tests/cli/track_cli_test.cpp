@@ -171,7 +171,7 @@ TEST_F(TrackCliTest, JsonLinesLogGivesTheSameEventsAndNamesItsBadLines) {
     if (i == 100) f << "{\"time_s\": 2.01, \"q\": {\"w\": 1}\n";  // file line 102: cut short
   }
   f.close();
-  const CliRun r = RunTrack({Path("log.jsonl"), "--json"});
+  const test::CliRun r = RunTrack({Path("log.jsonl"), "--json"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   EXPECT_EQ(j["samples"], 600);
@@ -223,7 +223,7 @@ TEST(TrackDemoLogTest, RoverYardRunGivesTheListedEvents) {
 }
 
 TEST(TrackDemoLogTest, CameraDollyJsonLinesGivesTheListedEvents) {
-  const CliRun r = RunTrack({DemoLog("camera_dolly_pan.jsonl"), "--json", "--rate-limit", "60"});
+  const test::CliRun r = RunTrack({DemoLog("camera_dolly_pan.jsonl"), "--json", "--rate-limit", "60"});
   ASSERT_EQ(r.code, 0) << r.err;
   const nlohmann::json j = nlohmann::json::parse(r.out);
   EXPECT_EQ(j["samples"], 360);

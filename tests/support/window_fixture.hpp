@@ -1,11 +1,13 @@
 // window_fixture.hpp: the fixture of the tests that drive the real window with a script
-// (app/gui/script.hpp): a scratch folder per test (removed unless the test failed), settings
-// kept in it (XDG_CONFIG_HOME), the window run from its "cwd" subfolder so stray files would
-// show there, and the dumps read back as JSON. Needs an X display (scripts/test.sh runs the
-// tests under xvfb-run when there is none).
+// (app/gui/script.hpp): a scratch folder per test and process (removed unless the test
+// failed; the process id keeps runs side by side apart), settings kept in it
+// (XDG_CONFIG_HOME), the window run from its "cwd" subfolder so stray files would show
+// there, and the dumps read back as JSON. Needs an X display (scripts/test.sh runs the tests
+// under xvfb-run when there is none).
 #pragma once
 
 #include <gtest/gtest.h>
+#include <unistd.h>
 
 #include <Eigen/Geometry>
 #include <algorithm>
@@ -31,7 +33,8 @@ class WindowFixture : public ::testing::Test {
     ASSERT_NE(std::getenv("DISPLAY"), nullptr)
         << "the window tests need an X display: run scripts/test.sh, or ctest under xvfb-run";
     dir_ = std::filesystem::temp_directory_path() /
-           (prefix_ + std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
+           (prefix_ + std::to_string(::getpid()) + "_" +
+            ::testing::UnitTest::GetInstance()->current_test_info()->name());
     std::filesystem::remove_all(dir_);
     std::filesystem::create_directories(dir_ / "cwd");
     setenv("XDG_CONFIG_HOME", (dir_ / "config").c_str(), 1);
