@@ -292,6 +292,9 @@ std::vector<PlotSpec> plot_specs(const Ui& ui) {
   return out;
 }
 
+/// Width (points) of one envelope column: two points halve the triangles llvmpipe sets up
+/// for a dense trace and still show every spike.
+constexpr float kColumnPx = 2.0f;
 /// A pixel column whose (joined) bar is at most this tall is drawn as part of a line.
 constexpr float kThinBarPx = 2.0f;
 /// Line points within this distance (pixels) of the simplified line are dropped.
@@ -466,14 +469,14 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
       }
       prev_lo = e.min[c];
       prev_hi = e.max[c];
-      const float x = p0.x + static_cast<float>(c);
+      const float x = p0.x + kColumnPx * static_cast<float>(c);
       const float ya = y_of(a, lo, hi, p0.y, p1.y), yb = y_of(b, lo, hi, p0.y, p1.y);
       if (ya - yb <= kThinBarPx) {
-        thin.push_back(ImVec2(x + 0.5f, y_of(0.5f * (e.min[c] + e.max[c]), lo, hi, p0.y, p1.y)));
+        thin.push_back(ImVec2(x + 0.5f * kColumnPx, y_of(0.5f * (e.min[c] + e.max[c]), lo, hi, p0.y, p1.y)));
         continue;
       }
       flush();
-      dl->AddRectFilled(ImVec2(x, yb), ImVec2(x + 1.0f, std::max(ya, yb + 1.0f)), col);
+      dl->AddRectFilled(ImVec2(x, yb), ImVec2(x + kColumnPx, std::max(ya, yb + 1.0f)), col);
     }
     flush();
   }
@@ -561,7 +564,8 @@ void draw_plots(Ui& ui) {
     first_channel.push_back(channels.size());
     channels.insert(channels.end(), s.channels.begin(), s.channels.end());
   }
-  const auto columns = static_cast<std::size_t>(std::max(16.0f, ImGui::GetContentRegionAvail().x));
+  const auto columns =
+      static_cast<std::size_t>(std::max(16.0f, ImGui::GetContentRegionAvail().x / kColumnPx));
   TrackPlotCache& cache = st.plot_cache;
   if (cache.generation != st.plot_generation || cache.t0 != st.view_t0 || cache.t1 != st.view_t1 ||
       cache.columns != columns || cache.channels != channels) {
