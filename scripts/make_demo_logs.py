@@ -1,7 +1,7 @@
 #!/usr/bin/env python3
 """Writes the invented demo logs in assets/logs/ (run from the repository root).
 
-Both scenarios are invented for attiscope's demos; no real vehicle or test is behind them.
+All scenarios are invented for attiscope's demos; no real vehicle or test is behind them.
 Poses are world_R_body, Hamilton quaternions, built from intrinsic ZYX angles
 R = Rz(yaw) Ry(pitch) Rx(roll), then faults are injected where the comments say.
 """
@@ -79,7 +79,33 @@ def gimbal(path):
             f.write("%.2f,%.9f,%.9f,%.9f,%.9f\n" % (t, x, y, z, w))
 
 
+def dolly(path):
+    """Invented: a film camera on a dolly pans right through 200 degrees while the dolly rolls
+    over a track joint, logged by the rig's controller as one JSON object per line at 30 Hz for
+    12 s, the pose nested under "pose" with the scalar last, time in milliseconds.
+
+    Injected: the joint at t = 5 s jolts the roll by 4 degrees for one frame (fast motion at
+    --rate-limit 60); one line is cut off by a controller restart after sample 200; the pan
+    crosses 180 degrees of yaw at t = 8.93 s; the controller writes the pose from its wrapped
+    yaw, so the quaternion changes sign there too (a wrap and a sign flip at the same sample).
+    """
+    with open(path, "w") as f:
+        f.write("# invented demo log: camera dolly pan over a track joint (attiscope demo data)\n")
+        for i in range(360):
+            t = i / 30.0
+            yaw = 40.0 + 200.0 * (t / 12.0) ** 1.2
+            yaw = (yaw + 180.0) % 360.0 - 180.0
+            pitch = -5.0 + 1.0 * math.sin(0.7 * t)
+            roll = 4.0 if 5.0 <= t < 5.0 + 1.0 / 30.0 else 0.3 * math.sin(2.0 * t)
+            w, x, y, z = quat_zyx(yaw, pitch, roll)
+            f.write('{"stamp_ms": %d, "mode": "pan", "pose": {"x": %.9f, "y": %.9f, "z": %.9f, "w": %.9f}}\n'
+                    % (round(t * 1000.0), x, y, z, w))
+            if i == 200:
+                f.write('{"stamp_ms": 6701, "mode": "pan", "pose": {"x": 0.0012\n')
+
+
 if __name__ == "__main__":
     os.makedirs("assets/logs", exist_ok=True)
     rover("assets/logs/rover_yard_run.csv")
     gimbal("assets/logs/gimbal_tilt_sweep.csv")
+    dolly("assets/logs/camera_dolly_pan.jsonl")

@@ -1,7 +1,6 @@
 // cmd_track.cpp: `attiscope track FILE`: summary and diagnosis of a pose log, and an
 // optional clean copy exported as CSV. The Track panel calls the same core functions.
 #include <cmath>
-#include <fstream>
 #include <iostream>
 
 #include "attiscope/core/columns.hpp"
@@ -212,22 +211,12 @@ int run_track(const std::vector<std::string>& args, Streams io) {
 
   std::optional<TrackExportSummary> exported;
   if (auto out_path = o.last("--export")) {
-    CleanTrack clean = clean_track(t);
-    TrackExportSummary summary;
-    summary.path = *out_path;
-    summary.options = exp;
-    summary.changes = std::move(clean.changes);
-    std::ofstream out(*out_path, std::ios::binary | std::ios::trunc);
-    if (!out) {
-      io.err << "attiscope track: cannot write '" << *out_path << "'\n";
+    auto summary = export_clean_track(t, exp, *out_path);
+    if (!summary) {
+      io.err << "attiscope track: " << *out_path << ": " << summary.error().describe() << "\n";
       return kExitBadInput;
     }
-    auto written = write_track_csv(out, clean.track, exp, &summary.changes);
-    if (!written) {
-      io.err << "attiscope track: " << *out_path << ": " << written.error().describe() << "\n";
-      return kExitBadInput;
-    }
-    exported = std::move(summary);
+    exported = std::move(summary.value());
   }
   if (o.json) {
     nlohmann::json j = track_json(t, d, diag, exported);

@@ -327,9 +327,13 @@ void draw_lower_tabs(Ui& ui) {
   const Tab tabs[] = {
       {"Intake", "tab.intake", draw_intake},          {"Compare", "tab.compare", draw_compare_panel},
       {"Mount check", "tab.mount", draw_mount_panel}, {"House convention", "tab.house", draw_house_panel},
-      {"Teach", "tab.teach", draw_teach_panel},       {"Finder", "tab.finder", draw_finder_panel}};
+      {"Teach", "tab.teach", draw_teach_panel},       {"Finder", "tab.finder", draw_finder_panel},
+      {"Track", "tab.track", draw_track_panel}};
   for (const Tab& tab : tabs) {
-    const bool open = ImGui::BeginTabItem(tab.label);
+    const bool select = tab.draw == draw_track_panel && ui.track.select_tab;
+    if (select) ui.track.select_tab = false;
+    const bool open = ImGui::BeginTabItem(tab.label, nullptr,
+                                          select ? ImGuiTabItemFlags_SetSelected : ImGuiTabItemFlags_None);
     record_widget(ui, tab.key);
     if (open) {
       tab.draw(ui);

@@ -19,7 +19,7 @@ std::string trim(const std::string& s) {
 }
 
 const char* const kOps[] = {"frames", "click", "type",       "key",  "clipboard", "resize",
-                            "dump",   "drag",  "screenshot", "quit", "scroll"};
+                            "dump",   "drag",  "screenshot", "quit", "scroll",    "wait"};
 
 }  // namespace
 
@@ -100,6 +100,14 @@ Expected<KeySpec> parse_key_spec(const std::string& spec) {
     k.key = GLFW_KEY_ESCAPE;
   else if (rest == "backspace")
     k.key = GLFW_KEY_BACKSPACE;
+  else if (rest == "comma")
+    k.key = GLFW_KEY_COMMA;
+  else if (rest == "period")
+    k.key = GLFW_KEY_PERIOD;
+  else if (rest == "left")
+    k.key = GLFW_KEY_LEFT;
+  else if (rest == "right")
+    k.key = GLFW_KEY_RIGHT;
   else if (rest.size() == 1 && rest[0] >= 'a' && rest[0] <= 'z')
     k.key = GLFW_KEY_A + (rest[0] - 'a');
   else if (rest.size() == 1 && rest[0] >= '0' && rest[0] <= '9')

@@ -4,13 +4,16 @@
 //   frames N            draw N frames with no input
 //   click NAME          move the mouse onto the widget NAME (ui.hpp's names), press, release
 //   type TEXT           type the characters of TEXT (the rest of the line)
-//   key SPEC            press and release a key: enter, tab, escape, backspace, a-z, 0-9,
+//   key SPEC            press and release a key: enter, tab, escape, backspace, comma,
+//                       period, left, right, a-z, 0-9,
 //                       with ctrl+ shift+ alt+ in front ("ctrl+shift+z")
 //   drag NAME DX DY [B] press a mouse button (left, right or middle; left if not given) on
 //                       the centre of widget NAME, move by DX, DY points in steps, release
 //   scroll NAME N       turn the mouse wheel N notches (up is positive) over widget NAME
 //   clipboard TEXT      put TEXT on the clipboard
 //   resize W H          resize the window (screen coordinates)
+//   wait [S]            draw frames until the Track panel's background job is done (at
+//                       most S seconds, 60 if not given; longer fails the script)
 //   dump FILE           write the document and every card's numbers as JSON
 //   screenshot FILE     write the window as a PNG
 //   quit                close the window

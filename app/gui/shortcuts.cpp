@@ -24,6 +24,9 @@ void handle_shortcuts(Ui& ui) {
     }
     return;
   }
+  // ',' and '.' step the Track panel's timeline one sample (Left/Right too, in the panel).
+  if (ImGui::IsKeyPressed(GLFW_KEY_COMMA)) step_track(ui, -1);
+  if (ImGui::IsKeyPressed(GLFW_KEY_PERIOD)) step_track(ui, 1);
   const double step = ui.settings.nudge_step_deg * kRadPerDeg * (io.KeyShift ? -1.0 : 1.0);
   const bool body = !io.KeyAlt;
   if (ImGui::IsKeyPressed(GLFW_KEY_X)) doc.nudge(Axis::X, step, body);

@@ -20,6 +20,7 @@
 #include "gui/document.hpp"
 #include "gui/settings.hpp"
 #include "gui/teaching.hpp"
+#include "gui/track_state.hpp"
 
 namespace attiscope::gui {
 
@@ -93,6 +94,7 @@ struct Ui {
   FinderPanelState finder;
   ComparePanelState compare;  ///< the Compare panel's inputs
   MountPanelState mount;      ///< the Mount check panel's inputs
+  TrackPanelState track;      ///< the Track panel's log, job, timeline and view
   /// A pose shown instead of the document's without committing it (the Compare panel's
   /// SLERP slider). The Scene draws shown_pose.value_or(doc.pose()), with the document's
   /// reference as the ghost. Cleared when the preview ends.
@@ -128,6 +130,24 @@ bool open_convention(Ui& ui, const std::string& path);
 void advance_teaching(Ui& ui, double dt_s);
 void draw_compare_panel(Ui& ui);
 void draw_mount_panel(Ui& ui);
+void draw_track_panel(Ui& ui);
+
+/// Starts loading a pose log into the Track panel on a background thread (the columns are
+/// found from the file's head first). False, with ui.track.error set, when the file cannot be
+/// read or no rotation columns are found.
+bool open_track(Ui& ui, const std::string& path);
+/// Each frame: takes a finished job's results, advances playback by dt seconds.
+void update_track(Ui& ui, double dt_s);
+/// A job is running (the window keeps drawing to show its progress).
+bool track_job_running(const Ui& ui);
+/// Playing or loading: the window wakes on a timer.
+bool track_animating(const Ui& ui);
+/// Moves the timeline by `delta` samples (the pose follows through the document).
+void step_track(Ui& ui, long delta);
+/// Cancels a running job and waits for it (before the window closes).
+void shutdown_track(Ui& ui);
+/// The panel's state for test dumps.
+nlohmann::json track_dump(const Ui& ui);
 
 /// Keyboard shortcuts of the whole window (undo, redo, nudges, Ctrl+V to the intake).
 void handle_shortcuts(Ui& ui);

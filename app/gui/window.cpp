@@ -20,7 +20,9 @@
 #include <iostream>
 #include <optional>
 #include <sstream>
+#include <thread>
 
+#include "attiscope/core/columns.hpp"
 #include "gui/card_values.hpp"
 #include "gui/gui.hpp"
 #include "gui/script.hpp"
@@ -41,15 +43,20 @@ constexpr int kFramesAfterEvent = 2;
 constexpr double kSpinRadPerS = 30.0 * kPi / 180.0;
 /// Longest wait between frames while something is animating or due.
 constexpr double kAnimationWaitS = 1.0 / 60.0;
+/// A script's `wait` step sleeps this long between frames.
+constexpr double kScriptWaitS = 0.01;
 
 const char* kWindowHelp =
     "usage: attiscope gui [FILE...] [--size WxH] [--script FILE] [--bench N]\n"
     "\n"
-    "Opens the window on the demo scene (an invented survey-aircraft pose).\n"
+    "Opens the window on the demo scene (an invented survey-aircraft pose). FILE: a house\n"
+    "convention (.toml) to load, or a pose log to open in the Track panel (CSV, TSV,\n"
+    "space-separated columns or JSON lines); a file dropped on the window opens the same way.\n"
     "  --size WxH      initial window size in screen coordinates\n"
     "  --script FILE   drive the window with a test script, then close (see app/gui/script.hpp)\n"
-    "  --bench N       frame-time benchmark: N frames while the body turns, then print the\n"
-    "                  median and 95th percentile frame time and the time to the first frame\n"
+    "  --bench N       frame-time benchmark: N frames while the body turns (or, with a log,\n"
+    "                  while the Track panel scrubs through it), then print the median and\n"
+    "                  95th percentile frame time and the time to the first frame\n"
     "Settings and the panel layout are kept in $XDG_CONFIG_HOME/attiscope (else\n"
     "~/.config/attiscope).\n";
 
@@ -163,7 +170,9 @@ void draw_panels(Ui& ui) {
 
   const float right_x = left_w;
   const float right_w = std::max(1.0f, w - left_w);
-  const float scene_h = std::floor(body_h * 0.54f);
+  // The Track tab takes the Gimbal rings' place and more height: its plots need the room.
+  const bool wide = ui.track.tab_open_last;
+  const float scene_h = std::floor(body_h * (wide ? 0.4f : 0.54f));
   const ImGuiWindowFlags view = fixed | ImGuiWindowFlags_NoBackground | ImGuiWindowFlags_NoScrollbar |
                                 ImGuiWindowFlags_NoScrollWithMouse;
   ui.scene_viewport = {};
@@ -175,8 +184,8 @@ void draw_panels(Ui& ui) {
   }
   const float bottom_y = toolbar_h + scene_h;
   const float bottom_h = std::max(1.0f, body_h - scene_h);
-  const float gimbal_w = std::floor(right_w * 0.6f);
-  if (ui.settings.show_gimbal) {
+  const float gimbal_w = wide ? 0.0f : std::floor(right_w * 0.6f);
+  if (ui.settings.show_gimbal && !wide) {
     place(right_x, bottom_y, gimbal_w, bottom_h);
     if (ImGui::Begin("Gimbal rings", nullptr, view)) draw_gimbal_panel(ui);
     ImGui::End();
@@ -229,6 +238,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
                   {"steps", steps}};
   }
   j["panels"] = ui.panel_state;
+  j["track"] = track_dump(ui);
   return j;
 }
 
@@ -336,6 +346,12 @@ void script_input(ScriptPlayer& p, Ui& ui, GLFWwindow* window, std::ostream& err
     }
     io.MousePos = p.mouse;
     if (++p.phase > 2) finish();
+  } else if (s.op == "wait") {
+    // Until the Track panel's background job is done (at most the given seconds, 60 if none).
+    const double limit_s = s.arg.empty() ? 60.0 : std::atof(s.arg.c_str());
+    if (!track_job_running(ui)) return finish();
+    if (++p.phase * kScriptWaitS > limit_s) return fail("the Track panel's job did not finish in time");
+    std::this_thread::sleep_for(std::chrono::duration<double>(kScriptWaitS));
   } else if (s.op == "type") {
     for (unsigned char c : s.arg) io.AddInputCharacter(c);
     finish();
@@ -462,10 +478,14 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   // Convention files are checked before the window opens, so a bad one is exit code 2.
   for (const std::string& f : opt.files) {
     if (std::filesystem::path(f).extension() != ".toml") {
-      err << "attiscope gui: not opening " << f
-          << ": only house convention files (.toml) open from the command line; logs will open in the Track "
-             "panel, which is not built yet\n";
-      return 2;
+      // A log: its columns must be found (the Track panel reads the rest once the window is up).
+      auto head = read_file_head(f);
+      auto found = head ? find_columns(head.value()) : Expected<ColumnMapping>(head.error());
+      if (!found) {
+        err << "attiscope gui: " << f << ": " << found.error().describe() << "\n";
+        return 2;
+      }
+      continue;
     }
     auto loaded = load_display_convention(f);
     if (!loaded) {
@@ -532,8 +552,24 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   Document doc(demo_state(settings));
   Ui ui(doc, settings);
   ui.status = "demo pose: an invented survey aircraft";
-  ui.spinning = opt.bench_frames > 0;
-  for (const std::string& f : opt.files) open_convention(ui, f);
+  for (const std::string& f : opt.files) {
+    if (std::filesystem::path(f).extension() == ".toml") {
+      open_convention(ui, f);
+    } else {
+      open_track(ui, f);
+    }
+  }
+  // The benchmark turns the body, or with a log scrubs the Track panel's timeline through it
+  // (the frames while the log loads are not counted).
+  const bool bench_track = opt.bench_frames > 0 && track_job_running(ui);
+  ui.spinning = opt.bench_frames > 0 && !bench_track;
+  // Files dropped on the window: conventions load, anything else opens as a track.
+  std::vector<std::string> dropped;
+  glfwSetWindowUserPointer(window, &dropped);
+  glfwSetDropCallback(window, [](GLFWwindow* w, int count, const char** paths) {
+    auto* list = static_cast<std::vector<std::string>*>(glfwGetWindowUserPointer(w));
+    for (int k = 0; k < count; ++k) list->emplace_back(paths[k]);
+  });
   float scale = window_scale(window, settings);
   build_fonts(ui, scale);
   ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
@@ -558,7 +594,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     const double now_s = seconds(entered, Clock::now());
     if (driven || frames_left > 0) {
       glfwPollEvents();
-    } else if (ui.spinning || ui.teach.playing) {
+    } else if (ui.spinning || ui.teach.playing || track_animating(ui)) {
       glfwWaitEventsTimeout(kAnimationWaitS);  // the animation's pace: at most about 60 frames a second
     } else {
       const double due = store.seconds_until_due(now_s);
@@ -570,6 +606,14 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       frames_left = kFramesAfterEvent;
     }
     if (glfwWindowShouldClose(window)) break;
+    for (const std::string& f : dropped) {
+      if (std::filesystem::path(f).extension() == ".toml") {
+        open_convention(ui, f);
+      } else {
+        open_track(ui, f);
+      }
+    }
+    dropped.clear();
     const float wanted = window_scale(window, settings);
     if (ui.rebuild_fonts || std::abs(wanted - scale) > 1e-3f) {
       scale = wanted;
@@ -599,6 +643,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     }
     if (ui.teach.playing)
       advance_teaching(ui, driven ? 1.0 / 60.0 : std::min(0.1, seconds(last_frame, start)));
+    update_track(ui, driven ? 1.0 / 60.0 : std::min(0.1, seconds(last_frame, start)));
     last_frame = start;
     ImGui::Render();
     last_vertices = ImGui::GetDrawData()->TotalVtxCount;
@@ -634,7 +679,15 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       views_first_process_s = seconds_since_process_start();
       views_shown = true;
     }
-    if (opt.bench_frames > 0) {
+    if (bench_track && track_job_running(ui)) {
+      previous_start = start;
+      previous_cpu = start_cpu;
+    } else if (opt.bench_frames > 0) {
+      if (bench_track && ui.track.track) {
+        const std::size_t n = ui.track.track->size();
+        step_track(
+            ui, static_cast<long>(std::max<std::size_t>(1, n / static_cast<std::size_t>(opt.bench_frames))));
+      }
       if (frame_index > 0) {
         frame_times.push_back(seconds(previous_start, start) * 1e3);
         frame_cpu.push_back((start_cpu - previous_cpu) * 1e3);
@@ -700,6 +753,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
     out << line;
   }
+  shutdown_track(ui);
   views_shutdown(ui);
   ImGui_ImplOpenGL3_Shutdown();
   ImGui_ImplGlfw_Shutdown();

@@ -12,6 +12,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstdint>
+#include <cstdio>
 #include <cstring>
 #include <fstream>
 #include <thread>
@@ -271,6 +272,200 @@ bool monotonic(const std::vector<std::vector<double>>& rows, std::size_t c) {
   return increases * 2 >= rows.size();
 }
 
+/// Objects nested deeper than this in a JSON line are refused (a log line is flat or nearly).
+constexpr int kMaxJsonDepth = 8;
+
+// One JSON object on one line, walked without building a tree: on_number(key, value) for
+// every number, nested keys joined with '.'. Strings, booleans, nulls and arrays are skipped.
+// On failure `why` says what was wrong and `p` points at it.
+struct JsonLineWalker {
+  const char* p;
+  const char* e;
+  std::string key;
+  const char* why = nullptr;
+
+  void ws() {
+    while (p < e && (*p == ' ' || *p == '\t' || *p == '\r')) ++p;
+  }
+  bool fail(const char* w) {
+    why = w;
+    return false;
+  }
+  bool string(std::string* out) {  // at the opening quote
+    ++p;
+    while (p < e && *p != '"') {
+      if (*p == '\\' && ++p >= e) break;
+      if (out) out->push_back(*p);
+      ++p;
+    }
+    if (p >= e) return fail("a string is not closed");
+    ++p;
+    return true;
+  }
+  bool skip_array() {
+    int depth = 0;
+    do {
+      if (*p == '"') {
+        if (!string(nullptr)) return false;
+        continue;
+      }
+      if (*p == '[' || *p == '{') ++depth;
+      if (*p == ']' || *p == '}') --depth;
+      ++p;
+    } while (p < e && depth > 0);
+    return depth == 0 ? true : fail("an array is not closed");
+  }
+  template <class F>
+  bool value(F& on_number, int depth) {
+    ws();
+    if (p >= e) return fail("a value is missing");
+    if (*p == '{') return object(on_number, depth + 1);
+    if (*p == '"') return string(nullptr);
+    if (*p == '[') return skip_array();
+    for (const char* word : {"true", "false", "null"}) {
+      const std::size_t n = std::strlen(word);
+      if (static_cast<std::size_t>(e - p) >= n && std::memcmp(p, word, n) == 0) {
+        p += n;
+        return true;
+      }
+    }
+    double v = 0.0;
+    const auto r = std::from_chars(p, e, v);
+    if (r.ec != std::errc() || r.ptr == p) return fail("a value is not a number, string, object or array");
+    p = r.ptr;
+    on_number(std::string_view(key), v);
+    return true;
+  }
+  template <class F>
+  bool object(F& on_number, int depth) {  // at the opening brace
+    if (depth > kMaxJsonDepth) return fail("objects nested too deep");
+    ++p;
+    ws();
+    if (p < e && *p == '}') {
+      ++p;
+      return true;
+    }
+    const std::size_t prefix = key.size();
+    for (;;) {
+      ws();
+      if (p >= e || *p != '"') return fail("expected a key in double quotes");
+      key.resize(prefix);
+      if (prefix > 0) key.push_back('.');
+      if (!string(&key)) return false;
+      ws();
+      if (p >= e || *p != ':') return fail("expected ':' after the key");
+      ++p;
+      if (!value(on_number, depth)) return false;
+      key.resize(prefix);
+      ws();
+      if (p < e && *p == ',') {
+        ++p;
+        continue;
+      }
+      if (p < e && *p == '}') {
+        ++p;
+        return true;
+      }
+      return fail("expected ',' or '}'");
+    }
+  }
+};
+
+/// Walks the JSON object of line [b, e). Returns 0 when it is one whole object, else the
+/// 1-based column of the trouble with `why` set.
+template <class F>
+std::size_t walk_json_line(const char* b, const char* e, F&& on_number, const char** why) {
+  JsonLineWalker w{b, e, {}, nullptr};
+  w.ws();
+  if (w.p >= e || *w.p != '{') {
+    *why = "the line is not a JSON object";
+  } else if (w.object(on_number, 1)) {
+    w.ws();
+    if (w.p == e) return 0;
+    *why = "text after the end of the object";
+  } else {
+    *why = w.why;
+  }
+  return static_cast<std::size_t>(w.p - b) + 1;
+}
+
+bool json_line(std::string_view l) {
+  const std::string t = trim(l);
+  return !t.empty() && t[0] == '{';
+}
+
+std::string number_text(double v) {
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.17g", v);
+  return buf;
+}
+
+}  // namespace
+
+namespace {
+
+// Column finding for JSON lines: the keys of the first object are the header, the numbers
+// of the next lines the sample rows, and the CSV column finding decides the rest.
+Expected<ColumnMapping> find_json_columns(const std::vector<std::string_view>& lines, std::size_t first,
+                                          const ColumnPreferences& prefs) {
+  std::vector<std::string> keys;
+  const char* why = nullptr;
+  {
+    const std::string_view l = lines[first];
+    const std::size_t col = walk_json_line(
+        l.data(), l.data() + l.size(),
+        [&](std::string_view k, double) {
+          if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.emplace_back(k);
+        },
+        &why);
+    if (col != 0) return Error{why, static_cast<int>(first + 1), static_cast<int>(col)};
+  }
+  if (keys.empty()) return Error{"the first JSON object holds no numbers", static_cast<int>(first + 1), 1};
+  // The same keys as a CSV text: a header and up to kSampleRows rows of numbers.
+  std::string csv;
+  for (std::size_t k = 0; k < keys.size(); ++k) {
+    std::string name = keys[k];
+    std::replace(name.begin(), name.end(), ',', '_');
+    csv += (k ? "," : "") + name;
+  }
+  csv += '\n';
+  std::size_t rows = 0;
+  std::vector<double> values(keys.size());
+  for (std::size_t i = first; i < lines.size() && rows < kSampleRows; ++i) {
+    if (blank_or_comment(lines[i])) continue;
+    std::vector<bool> seen(keys.size(), false);
+    const std::string_view l = lines[i];
+    const std::size_t col = walk_json_line(
+        l.data(), l.data() + l.size(),
+        [&](std::string_view k, double v) {
+          const auto it = std::find(keys.begin(), keys.end(), k);
+          if (it == keys.end()) return;
+          const auto c = static_cast<std::size_t>(it - keys.begin());
+          values[c] = v;
+          seen[c] = true;
+        },
+        &why);
+    if (col != 0 || std::find(seen.begin(), seen.end(), false) != seen.end()) continue;
+    for (std::size_t k = 0; k < keys.size(); ++k) csv += (k ? "," : "") + number_text(values[k]);
+    csv += '\n';
+    ++rows;
+  }
+  auto found = find_columns(csv, prefs);
+  if (!found) {
+    Error e = found.error();
+    e.line = static_cast<int>(first + 1);
+    e.column = 1;
+    return e;
+  }
+  ColumnMapping m = found.value();
+  m.json_lines = true;
+  m.json_keys = keys;
+  m.header_lines = 0;  // no header line: leading comments count as skipped lines
+  m.notes.insert(m.notes.begin(), "one JSON object per line: the keys of line " + std::to_string(first + 1) +
+                                      " are the column names");
+  return m;
+}
+
 }  // namespace
 
 std::string track_form_name(TrackForm f) {
@@ -283,12 +478,39 @@ std::string track_form_name(TrackForm f) {
   return "?";
 }
 
+double time_unit_seconds(std::string_view unit) {
+  return unit_of(std::string(unit));
+}
+
+void assign_column_roles(ColumnMapping* m) {
+  for (TrackColumn& c : m->columns) c.role = "ignored";
+  m->time_scale = time_unit_seconds(m->time_unit);
+  if (m->time_column >= 0 && static_cast<std::size_t>(m->time_column) < m->columns.size())
+    m->columns[static_cast<std::size_t>(m->time_column)].role = "time (" + m->time_unit + ")";
+  static constexpr const char* kQuatRoles[4] = {"quaternion w", "quaternion x", "quaternion y",
+                                                "quaternion z"};
+  const std::size_t used = m->form == TrackForm::QuatWxyz || m->form == TrackForm::QuatXyzw ? 4 : 9;
+  for (std::size_t k = 0; k < used; ++k) {
+    const int col = m->rotation_columns[k];
+    if (col < 0 || static_cast<std::size_t>(col) >= m->columns.size()) continue;
+    const auto c = static_cast<std::size_t>(col);
+    if (used == 4) {
+      m->columns[c].role = kQuatRoles[k];
+    } else {
+      const std::size_t i = m->form == TrackForm::MatrixRows ? k / 3 : k % 3;
+      const std::size_t j = m->form == TrackForm::MatrixRows ? k % 3 : k / 3;
+      m->columns[c].role = "matrix r" + std::to_string(i + 1) + std::to_string(j + 1);
+    }
+  }
+}
+
 Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPreferences& prefs) {
   ColumnMapping m;
   const std::vector<std::string_view> lines = split_lines(sample);
   std::size_t first = 0;
   while (first < lines.size() && blank_or_comment(lines[first])) ++first;
   if (first >= lines.size()) return Error{"the log has no data lines", 1, 1};
+  if (json_line(lines[first])) return find_json_columns(lines, first, prefs);
   // Delimiter from the first non-comment line.
   const std::string_view l0 = lines[first];
   if (l0.find('\t') != std::string_view::npos) {
@@ -503,25 +725,140 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
       for (const auto& r : rows) t.push_back(r[static_cast<std::size_t>(m.time_column)]);
       time_unit_from_values(t, &m);
     }
-    m.time_scale = unit_of(m.time_unit);
-    m.columns[static_cast<std::size_t>(m.time_column)].role = "time (" + m.time_unit + ")";
   }
-  static constexpr const char* kQuatRoles[4] = {"quaternion w", "quaternion x", "quaternion y",
-                                                "quaternion z"};
-  for (std::size_t k = 0; k < used; ++k) {
-    const auto c = static_cast<std::size_t>(m.rotation_columns[k]);
-    if (used == 4) {
-      m.columns[c].role = kQuatRoles[k];
-    } else {
-      const std::size_t i = m.form == TrackForm::MatrixRows ? k / 3 : k % 3;
-      const std::size_t j = m.form == TrackForm::MatrixRows ? k % 3 : k / 3;
-      m.columns[c].role = "matrix r" + std::to_string(i + 1) + std::to_string(j + 1);
-    }
-  }
+  assign_column_roles(&m);
   return m;
 }
 
 namespace {
+
+// Appends the sample of one row whose numbers are in values (slot 0 the time, 1.. the
+// rotation numbers in storage order) to the track; false and the reason when the row is not
+// a rotation (a NaN, a zero quaternion, a matrix that is not a rotation).
+inline bool push_row(const ColumnMapping& m, bool quat, const double* values, Track* track,
+                     std::string* reason) {
+  double w, x, y, z;
+  if (quat) {
+    w = values[1];
+    x = values[2];
+    y = values[3];
+    z = values[4];
+    const double n2 = w * w + x * x + y * y + z * z;
+    if (!std::isfinite(n2)) {
+      *reason = "a quaternion number is NaN or infinite";
+      return false;
+    }
+    if (n2 < kMinQuaternionNorm * kMinQuaternionNorm) {
+      *reason = "zero quaternion";
+      return false;
+    }
+  } else {
+    std::array<double, 9> n{};
+    for (int k = 0; k < 9; ++k) n[static_cast<std::size_t>(k)] = values[k + 1];
+    const Eigen::Matrix3d a = matrix_from_numbers(
+        n, m.form == TrackForm::MatrixRows ? MatrixStorage::Rows : MatrixStorage::Columns);
+    auto r = from_matrix(a);
+    if (!r) {
+      *reason = r.error().message;
+      return false;
+    }
+    const Eigen::Quaterniond q = r.value().stored_quaternion();
+    w = q.w();
+    x = q.x();
+    y = q.y();
+    z = q.z();
+  }
+  const double t = m.time_column >= 0 ? values[0] * m.time_scale : static_cast<double>(track->qw.size());
+  track->time_s.push_back(t);
+  track->qw.push_back(w);
+  track->qx.push_back(x);
+  track->qy.push_back(y);
+  track->qz.push_back(z);
+  return true;
+}
+
+// read_track_text for JSON lines: each line's numbers are found by key (in any order).
+Expected<Track> read_json_lines(std::string_view text, const ColumnMapping& m, const ReadProgress& progress,
+                                const std::atomic<bool>* cancel, Track track) {
+  const bool quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
+  const std::size_t used = quat ? 4 : 9;
+  const std::size_t nk = m.json_keys.size();
+  std::vector<int> slot_of(nk, -1);  // per key: -1 ignored, 0 time, 1.. rotation numbers
+  if (m.time_column >= 0 && static_cast<std::size_t>(m.time_column) < nk)
+    slot_of[static_cast<std::size_t>(m.time_column)] = 0;
+  for (std::size_t k = 0; k < used; ++k) {
+    const int c = m.rotation_columns[k];
+    if (c >= 0 && static_cast<std::size_t>(c) < nk)
+      slot_of[static_cast<std::size_t>(c)] = static_cast<int>(k) + 1;
+  }
+  unsigned needed = 0;  // bit per slot
+  for (int s : slot_of)
+    if (s >= 0) needed |= 1u << s;
+  const char* const begin = text.data();
+  const char* const end = begin + text.size();
+  const char* p = begin;
+  std::size_t line = 0;
+  std::size_t next_report = kProgressStep;
+  double values[10] = {};
+  while (p < end) {
+    ++line;
+    const char* nl = static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(end - p)));
+    const char* le = nl ? nl : end;
+    const char* next = nl ? nl + 1 : end;
+    if (le > p && le[-1] == '\r') --le;
+    if (line <= m.header_lines) {
+      p = next;
+      continue;
+    }
+    if (static_cast<std::size_t>(p - begin) >= next_report) {
+      next_report += kProgressStep;
+      if (cancel && cancel->load(std::memory_order_relaxed)) return Error{"reading the log was cancelled"};
+      if (progress) progress(static_cast<std::size_t>(p - begin), text.size());
+    }
+    if (blank_or_comment(std::string_view(p, static_cast<std::size_t>(le - p)))) {
+      if (!(le == p && next == end)) ++track.skipped_lines;
+      p = next;
+      continue;
+    }
+    unsigned seen = 0;
+    std::size_t hint = 0;  // keys usually come in the first line's order
+    const char* why = nullptr;
+    const std::size_t col = walk_json_line(
+        p, le,
+        [&](std::string_view k, double v) {
+          std::size_t c = hint < nk && m.json_keys[hint] == k ? hint : nk;
+          for (std::size_t i = 0; c == nk && i < nk; ++i)
+            if (m.json_keys[i] == k) c = i;
+          if (c == nk) return;
+          hint = c + 1;
+          const int slot = slot_of[c];
+          if (slot < 0) return;
+          values[slot] = v;
+          seen |= 1u << slot;
+        },
+        &why);
+    std::string reason;
+    bool bad = false;
+    if (col != 0) {
+      bad = true;
+      reason = std::string(why) + " (column " + std::to_string(col) + ")";
+    } else if ((seen & needed) != needed) {
+      bad = true;
+      for (std::size_t c = 0; c < nk; ++c) {
+        if (slot_of[c] >= 0 && !(seen & (1u << slot_of[c]))) {
+          reason = "no number under key '" + m.json_keys[c] + "'";
+          break;
+        }
+      }
+    } else {
+      bad = !push_row(m, quat, values, &track, &reason);
+    }
+    if (bad) track.bad_rows.push_back({line, reason});
+    p = next;
+  }
+  if (progress) progress(text.size(), text.size());
+  return track;
+}
 
 /// Below this many bytes of rows a log is read on one thread (a thread costs more).
 constexpr std::size_t kParallelMinBytes = std::size_t{4} << 20;
@@ -755,6 +1092,7 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
   track.reading = track_form_name(m.form);
   track.has_time = m.time_column >= 0;
   track.time_unit = track.has_time ? m.time_unit : "";
+  if (m.json_lines) return read_json_lines(text, m, progress, cancel, std::move(track));
   const char* const begin = text.data();
   const char* const end = begin + text.size();
   // The header lines, which are not data.

@@ -3,6 +3,9 @@
 
 #include <cmath>
 #include <cstdio>
+#include <sstream>
+
+#include "attiscope/core/atomic_file.hpp"
 
 namespace attiscope {
 
@@ -57,6 +60,21 @@ nlohmann::json change_json(const CleanChange& c) {
 }
 
 }  // namespace
+
+Expected<TrackExportSummary> export_clean_track(const Track& track, const TrackExportOptions& options,
+                                                const std::string& path) {
+  CleanTrack clean = clean_track(track);
+  TrackExportSummary summary;
+  summary.path = path;
+  summary.options = options;
+  summary.changes = std::move(clean.changes);
+  std::ostringstream text;
+  auto written = write_track_csv(text, clean.track, options, &summary.changes);
+  if (!written) return written.error();
+  auto saved = write_file_atomically(path, text.str());
+  if (!saved) return Error{"cannot write '" + path + "': " + saved.error().message};
+  return summary;
+}
 
 nlohmann::json track_event_json(const Track& track, const TrackEvent& e) {
   nlohmann::json j = {

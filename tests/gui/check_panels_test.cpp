@@ -17,6 +17,7 @@
 #include "cli/cli.hpp"
 #include "gui/gui.hpp"
 #include "gui/settings.hpp"
+#include "support/window_fixture.hpp"
 
 namespace attiscope::gui {
 namespace {
@@ -24,36 +25,10 @@ namespace {
 /// Two runs of the same core call on the same text agree to rounding.
 constexpr double kSameCall = 1e-9;
 
-class CheckPanelsTest : public ::testing::Test {
+class CheckPanelsTest : public test::WindowFixture {
  protected:
-  void SetUp() override {
-    ASSERT_NE(std::getenv("DISPLAY"), nullptr)
-        << "the window tests need an X display: run scripts/test.sh, or ctest under xvfb-run";
-    dir_ =
-        std::filesystem::temp_directory_path() /
-        ("attiscope_checks_" + std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
-    std::filesystem::remove_all(dir_);
-    std::filesystem::create_directories(dir_ / "cwd");
-    setenv("XDG_CONFIG_HOME", (dir_ / "config").c_str(), 1);
-  }
-  void TearDown() override { std::filesystem::remove_all(dir_); }
+  CheckPanelsTest() : WindowFixture("attiscope_checks_", "1600x1000") {}
 
-  std::string path(const std::string& name) const { return (dir_ / name).string(); }
-
-  int run(const std::string& script) {
-    std::ofstream(path("test.script")) << script;
-    const auto old = std::filesystem::current_path();
-    std::filesystem::current_path(dir_ / "cwd");
-    std::ostringstream out, err;
-    const int rc = run_window({"--size", "1600x1000", "--script", path("test.script")}, out, err);
-    std::filesystem::current_path(old);
-    err_ = err.str();
-    return rc;
-  }
-  nlohmann::json dump(const std::string& name) const {
-    std::ifstream in(path(name));
-    return nlohmann::json::parse(in);
-  }
   static nlohmann::json cli_json(const std::vector<std::string>& args, int* code = nullptr) {
     std::ostringstream out, err;
     std::istringstream in;
@@ -61,9 +36,6 @@ class CheckPanelsTest : public ::testing::Test {
     if (code) *code = rc;
     return nlohmann::json::parse(out.str());
   }
-
-  std::filesystem::path dir_;
-  std::string err_;
 };
 
 /// Distinct colours and the spread of brightness of a PNG: a blank or one-colour picture has

@@ -16,6 +16,7 @@
 #include "cli/cli.hpp"
 #include "gui/gui.hpp"
 #include "support/check.hpp"
+#include "support/window_fixture.hpp"
 
 namespace attiscope::gui {
 namespace {
@@ -23,36 +24,9 @@ namespace {
 /// Quaternions loaded from a reading come back through the document to this.
 constexpr double kLoaded = 1e-9;
 
-class IntakePanelTest : public ::testing::Test {
+class IntakePanelTest : public test::WindowFixture {
  protected:
-  void SetUp() override {
-    ASSERT_NE(std::getenv("DISPLAY"), nullptr)
-        << "the window tests need an X display: run scripts/test.sh, or ctest under xvfb-run";
-    dir_ =
-        std::filesystem::temp_directory_path() /
-        ("attiscope_intake_" + std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
-    std::filesystem::remove_all(dir_);
-    std::filesystem::create_directories(dir_);
-    setenv("XDG_CONFIG_HOME", (dir_ / "config").c_str(), 1);
-  }
-  void TearDown() override {
-    if (!::testing::Test::HasFailure()) std::filesystem::remove_all(dir_);
-  }
-
-  std::string path(const std::string& name) const { return (dir_ / name).string(); }
-
-  int run(const std::string& script, const std::string& size = "1280x800") {
-    std::ofstream(path("test.script")) << script;
-    std::ostringstream out, err;
-    const int rc = run_window({"--size", size, "--script", path("test.script")}, out, err);
-    err_ = err.str();
-    return rc;
-  }
-
-  nlohmann::json dump(const std::string& name) const {
-    std::ifstream in(path(name));
-    return nlohmann::json::parse(in);
-  }
+  IntakePanelTest() : WindowFixture("attiscope_intake_", "1280x800") {}
 
   /// `attiscope read --json` of text, through the command line's own entry point.
   static nlohmann::json read_json(const std::string& text, int* rc) {
@@ -62,18 +36,10 @@ class IntakePanelTest : public ::testing::Test {
     return *rc == 0 ? nlohmann::json::parse(out.str()) : nlohmann::json();
   }
 
-  static Rotation pose(const nlohmann::json& d) {
-    const auto& q = d["document"]["quaternion"];
-    return Rotation(Eigen::Quaterniond(q["w"], q["x"], q["y"], q["z"]));
-  }
-
   /// Paste text with Ctrl+V, as a person would, and dump.
   std::string paste(const std::string& text, const std::string& dump_name) const {
     return "frames 2\nclipboard " + text + "\nkey ctrl+v\nframes 3\ndump " + path(dump_name) + "\n";
   }
-
-  std::filesystem::path dir_;
-  std::string err_;
 };
 
 TEST_F(IntakePanelTest, PastedQuaternionListsTheCommandLinesReadingsInOrder) {

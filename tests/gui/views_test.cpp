@@ -18,6 +18,7 @@
 #include "attiscope/core/euler.hpp"
 #include "gui/gui.hpp"
 #include "support/check.hpp"
+#include "support/window_fixture.hpp"
 
 namespace attiscope::gui {
 namespace {
@@ -25,46 +26,10 @@ namespace {
 constexpr double kPi = 3.14159265358979323846;
 constexpr double kDegPerRad = 180.0 / kPi;
 
-class ViewsTest : public ::testing::Test {
+class ViewsTest : public test::WindowFixture {
  protected:
-  void SetUp() override {
-    ASSERT_NE(std::getenv("DISPLAY"), nullptr)
-        << "the window tests need an X display: run scripts/test.sh, or ctest under xvfb-run";
-    dir_ =
-        std::filesystem::temp_directory_path() /
-        ("attiscope_views_" + std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
-    std::filesystem::remove_all(dir_);
-    std::filesystem::create_directories(dir_ / "cwd");
-    setenv("XDG_CONFIG_HOME", (dir_ / "config").c_str(), 1);
-  }
-  void TearDown() override { std::filesystem::remove_all(dir_); }
+  ViewsTest() : WindowFixture("attiscope_views_", "1280x800") {}
 
-  std::string path(const std::string& name) const { return (dir_ / name).string(); }
-
-  int run(const std::string& script, const std::string& size = "1280x800") {
-    std::ofstream(path("test.script")) << script;
-    const auto old = std::filesystem::current_path();
-    std::filesystem::current_path(dir_ / "cwd");
-    std::ostringstream out, err;
-    const int rc = run_window({"--size", size, "--script", path("test.script")}, out, err);
-    std::filesystem::current_path(old);
-    err_ = err.str();
-    return rc;
-  }
-
-  nlohmann::json dump(const std::string& name) const {
-    std::ifstream in(path(name));
-    return nlohmann::json::parse(in);
-  }
-
-  static Rotation pose(const nlohmann::json& d) {
-    const auto& q = d["document"]["quaternion"];
-    return Rotation(Eigen::Quaterniond(q["w"], q["x"], q["y"], q["z"]));
-  }
-  static bool has_widget(const nlohmann::json& d, const std::string& name) {
-    const auto& w = d["widgets"];
-    return std::find(w.begin(), w.end(), name) != w.end();
-  }
   /// The view's up direction in the world, for the default ENU world: the camera's
   /// direction toward the viewer is cos(e)(cos(a) x + sin(a) y) + sin(e) z, screen right is
   /// its azimuth derivative, and up = back x right (camera.hpp's definitions).
@@ -75,9 +40,6 @@ class ViewsTest : public ::testing::Test {
     const Eigen::Vector3d right(-std::sin(a), std::cos(a), 0.0);
     return back.cross(right).normalized();
   }
-
-  std::filesystem::path dir_;
-  std::string err_;
 };
 
 TEST_F(ViewsTest, DragOnBodyIsOneUndoableTurnAboutTheViewUpAxis) {

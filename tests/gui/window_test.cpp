@@ -22,6 +22,7 @@
 #include "gui/display_convention.hpp"
 #include "gui/gui.hpp"
 #include "support/check.hpp"
+#include "support/window_fixture.hpp"
 
 namespace attiscope::gui {
 namespace {
@@ -30,52 +31,13 @@ constexpr double kPi = 3.14159265358979323846;
 /// Numbers typed at full precision come back through the card to this.
 constexpr double kTyped = 1e-9;
 
-class WindowTest : public ::testing::Test {
+class WindowTest : public test::WindowFixture {
  protected:
-  void SetUp() override {
-    ASSERT_NE(std::getenv("DISPLAY"), nullptr)
-        << "the window tests need an X display: run scripts/test.sh, or ctest under xvfb-run";
-    dir_ =
-        std::filesystem::temp_directory_path() /
-        ("attiscope_window_" + std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
-    std::filesystem::remove_all(dir_);
-    std::filesystem::create_directories(dir_ / "cwd");
-    setenv("XDG_CONFIG_HOME", (dir_ / "config").c_str(), 1);
-  }
-  void TearDown() override { std::filesystem::remove_all(dir_); }
+  WindowTest() : WindowFixture("attiscope_window_", "1600x900") {}
 
-  std::string path(const std::string& name) const { return (dir_ / name).string(); }
-
-  /// Runs the window on a script (from the folder "cwd", so stray files would show there).
-  int run(const std::string& script, const std::string& size = "1600x900",
-          const std::vector<std::string>& files = {}) {
-    std::ofstream(path("test.script")) << script;
-    const auto old = std::filesystem::current_path();
-    std::filesystem::current_path(dir_ / "cwd");
-    std::ostringstream out, err;
-    std::vector<std::string> args = {"--size", size, "--script", path("test.script")};
-    args.insert(args.end(), files.begin(), files.end());
-    const int rc = run_window(args, out, err);
-    std::filesystem::current_path(old);
-    err_ = err.str();
-    return rc;
-  }
-
-  nlohmann::json dump(const std::string& name) const {
-    std::ifstream in(path(name));
-    return nlohmann::json::parse(in);
-  }
-
-  static Rotation pose(const nlohmann::json& d) {
-    const auto& q = d["document"]["quaternion"];
-    return Rotation(Eigen::Quaterniond(q["w"], q["x"], q["y"], q["z"]));
-  }
   static std::vector<double> numbers(const nlohmann::json& d, const char* card) {
     return d["cards"][card]["numbers"].get<std::vector<double>>();
   }
-
-  std::filesystem::path dir_;
-  std::string err_;
 };
 
 TEST_F(WindowTest, EulerEditChangesDocumentAndEveryCard) {
@@ -291,9 +253,14 @@ TEST_F(WindowTest, BadFilesOnTheCommandLineExitTwo) {
   std::ofstream(path("broken.toml")) << "# a broken file\nname = \"Broken\n";
   EXPECT_EQ(run("frames 1\n", "1600x900", {path("broken.toml")}), 2);
   EXPECT_NE(err_.find("line 2"), std::string::npos) << err_;
+  // A log with a header and no data: no rotation columns can be found; the message names
+  // the file and the line.
   std::ofstream(path("flight.csv")) << "t,qw,qx,qy,qz\n";
   EXPECT_EQ(run("frames 1\n", "1600x900", {path("flight.csv")}), 2);
-  EXPECT_NE(err_.find("Track panel"), std::string::npos) << err_;
+  EXPECT_NE(err_.find("flight.csv"), std::string::npos) << err_;
+  EXPECT_NE(err_.find("line 2"), std::string::npos) << err_;
+  EXPECT_EQ(run("frames 1\n", "1600x900", {path("missing.csv")}), 2);
+  EXPECT_NE(err_.find("missing.csv"), std::string::npos) << err_;
 }
 
 TEST_F(WindowTest, MalformedFileShowsItsErrorAndKeepsTheDocument) {

@@ -7,6 +7,11 @@
 // slot that holds the scalar is found from the text of the header, or the house layout
 // decides), nine adjacent columns orthonormal per row are a matrix, and a monotonic column
 // is time, its unit taken from its magnitude.
+//
+// JSON lines (one object per line, `{"t": 0.01, "qw": 1, "qx": 0, "qy": 0, "qz": 0}`) are read
+// the same way: the keys of the first object are the header (a nested object's keys are
+// joined with '.', so {"orientation": {"w": ..}} is "orientation.w"), and each line's numbers
+// are found by key, in any order. Strings, booleans, nulls and arrays are ignored.
 #pragma once
 
 #include <array>
@@ -51,6 +56,10 @@ struct ColumnMapping {
   std::vector<TrackColumn> columns;  ///< name and role of every column
   std::vector<std::string> notes;    ///< how each choice was made, one sentence each
   bool ambiguous = false;            ///< a choice the text did not decide (layout, storage)
+  /// One JSON object per line: column c is the number under key json_keys[c] (delimiter and
+  /// decimal_comma do not apply; header_lines is 0).
+  bool json_lines = false;
+  std::vector<std::string> json_keys;
 };
 
 /// The house choices column finding falls back on.
@@ -62,6 +71,13 @@ struct ColumnPreferences {
 /// Finds the columns from the first lines of a log (a few hundred lines are plenty). Error
 /// when no rotation columns are found, naming the line the trouble is on.
 Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPreferences& preferences = {});
+
+/// Seconds per unit of a time column: "s" 1, "ms" 1e-3, "us" 1e-6, "ns" 1e-9.
+double time_unit_seconds(std::string_view unit);
+
+/// Sets every column's role and time_scale from time_column, time_unit, form and
+/// rotation_columns: what a mapping edited by hand (the Track panel) needs before reading.
+void assign_column_roles(ColumnMapping* m);
 
 /// Called now and then while reading: bytes done, bytes in total.
 using ReadProgress = std::function<void(std::size_t done, std::size_t total)>;

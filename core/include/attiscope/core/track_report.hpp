@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "attiscope/core/expected.hpp"
 #include "attiscope/core/track.hpp"
 #include "attiscope/core/track_analysis.hpp"
 #include "attiscope/core/track_clean.hpp"
@@ -25,6 +26,13 @@ struct TrackExportSummary {
   TrackExportOptions options;
   std::vector<CleanChange> changes;  ///< clean_track's, then the Euler unwrap's
 };
+
+/// Exports the clean copy of a track (clean_track) as CSV (write_track_csv) to `path`,
+/// written atomically (atomic_file.hpp: a failure leaves an old file whole). The command
+/// line's --export and the Track panel's Export both call this. Error: the file cannot be
+/// written (the message names it).
+Expected<TrackExportSummary> export_clean_track(const Track& track, const TrackExportOptions& options,
+                                                const std::string& path);
 
 /// One event as JSON: {"sample", "kind", "count", "time_s"} and a kind-specific detail
 /// ("dot", "angle" and "step_deg", "norm", "dt_s", "peak_rate_deg_s").

@@ -1,0 +1,110 @@
+// track_state.hpp: the Track panel's state: the loaded log, its plot data and diagnosis
+// (computed by core), the background job that reads or re-analyses it, the timeline and the
+// plot view. The log itself is not undoable (it is a file); the poses it puts in the
+// document are.
+//
+// Threads: a job runs on its own std::thread and touches only its TrackJob (atomic progress
+// and cancel flag, results written before `finished` is set). The window thread polls
+// `finished` each frame and only then reads the results; it never blocks on the job.
+#pragma once
+
+#include <atomic>
+#include <cstddef>
+#include <memory>
+#include <optional>
+#include <string>
+#include <thread>
+#include <vector>
+
+#include "attiscope/core/columns.hpp"
+#include "attiscope/core/expected.hpp"
+#include "attiscope/core/track.hpp"
+#include "attiscope/core/track_analysis.hpp"
+#include "attiscope/core/track_clean.hpp"
+#include "attiscope/core/track_plot.hpp"
+
+namespace attiscope::gui {
+
+/// What a background job is doing (shown beside the progress bar).
+enum class TrackJobStage : int { Reading = 0, Plotting = 1, Diagnosing = 2 };
+
+struct TrackJob {
+  // Shared with the thread.
+  std::atomic<bool> cancel{false};
+  std::atomic<bool> finished{false};
+  std::atomic<int> stage{0};
+  std::atomic<std::size_t> done{0};
+  std::atomic<std::size_t> total{0};
+  // Written by the thread before `finished`, read by the window thread after it.
+  bool reads_file = false;  ///< a load (else a re-analysis of the current track)
+  std::optional<Error> error;
+  std::shared_ptr<const Track> track;
+  std::unique_ptr<TrackPlotData> plot;  ///< null when the plot data did not change
+  std::optional<TrackDiagnosis> diagnosis;
+  std::thread thread;
+
+  TrackJob() = default;
+  TrackJob(const TrackJob&) = delete;
+  TrackJob& operator=(const TrackJob&) = delete;
+  /// Cancels and waits: a job never outlives its state.
+  ~TrackJob();
+};
+
+/// The plots' envelopes of the last frame, and what they were computed for.
+struct TrackPlotCache {
+  std::size_t generation = 0;  ///< TrackPanelState::plot_generation they came from
+  double t0 = 0.0, t1 = 0.0;
+  std::size_t columns = 0;
+  std::vector<PlotChannel> channels;
+  std::vector<PlotEnvelope> envelopes;  ///< one per channel, in `channels` order
+};
+
+/// The Track panel's inner tabs.
+enum class TrackTab { Plots, Events, Columns, BadRows, Export };
+
+struct TrackPanelState {
+  std::string path_input;                ///< the path box
+  std::string path;                      ///< the log loaded (or being loaded)
+  std::optional<ColumnMapping> mapping;  ///< found from the file's head, or edited
+  std::string error;                     ///< the last open or read error, with its place
+  std::string message;                   ///< the last result line ("loaded ...", "cancelled")
+
+  std::shared_ptr<const Track> track;
+  std::unique_ptr<TrackPlotData> plot;
+  std::size_t plot_generation = 1;  ///< counts replacements of `plot`
+  TrackPlotCache plot_cache;
+  TrackDiagnosis diagnosis;
+  std::unique_ptr<TrackJob> job;
+  bool reanalyse_pending = false;  ///< a change came while a job ran: re-analyse after it
+
+  // Analysis choices.
+  int convention_index = -1;  ///< into all_euler_conventions(); -1: the house convention
+  AngleMode mode = AngleMode::Wrapped;
+  double rate_limit_deg_s = 0.0;  ///< 0: no fast_motion events
+
+  // Timeline.
+  std::size_t sample = 0;
+  bool playing = false;
+  float speed = 1.0f;        ///< track seconds per wall-clock second
+  double play_time_s = 0.0;  ///< track time of the play head (between samples)
+
+  // Plot view (track seconds); t1 <= t0: the whole track.
+  double view_t0 = 0.0, view_t1 = 0.0;
+  bool show_plot[4] = {true, true, true, true};  ///< quaternion, Euler, lock margin, rate
+  TrackTab tab = TrackTab::Plots;
+  bool select_tab = false;     ///< bring the Track tab to the front next frame
+  bool tab_open = false;       ///< the Track tab was drawn this frame (the window widens it)
+  bool tab_open_last = false;  ///< ... last frame
+
+  // Export.
+  std::string export_path;
+  TrackExportOptions export_options;
+  std::vector<CleanChange> export_changes;
+  std::string export_message;
+
+  TrackPanelState() = default;
+  TrackPanelState(const TrackPanelState&) = delete;
+  TrackPanelState& operator=(const TrackPanelState&) = delete;
+};
+
+}  // namespace attiscope::gui
