@@ -336,6 +336,7 @@ void draw_lower_tabs(Ui& ui) {
                                           select ? ImGuiTabItemFlags_SetSelected : ImGuiTabItemFlags_None);
     record_widget(ui, tab.key);
     if (open) {
+      ui.lower_tab = tab.label;
       tab.draw(ui);
       ImGui::EndTabItem();
     }

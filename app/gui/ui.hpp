@@ -64,17 +64,18 @@ struct Ui {
   Ui& operator=(const Ui&) = delete;
   Document& doc;
   Settings& settings;
-  bool settings_changed = false;    ///< a panel changed a setting this frame
-  ImFont* mono = nullptr;           ///< numbers
-  ImFont* heading = nullptr;        ///< card titles
-  float scale = 1.0f;               ///< content scale x UI scale
-  std::string intake_text;          ///< the Intake paste box
-  bool focus_intake = false;        ///< Ctrl+V was pressed outside a text field
-  bool spinning = false;            ///< the body turns continuously (toolbar toggle)
-  bool rebuild_fonts = false;       ///< the UI scale changed
-  FramebufferRect scene_viewport;   ///< where the Scene's 3D view goes
-  FramebufferRect gimbal_viewport;  ///< where the Gimbal rings go
-  std::string status;               ///< one line at the foot of the toolbar ("copied ...")
+  bool settings_changed = false;     ///< a panel changed a setting this frame
+  ImFont* mono = nullptr;            ///< numbers
+  ImFont* heading = nullptr;         ///< card titles
+  float scale = 1.0f;                ///< content scale x UI scale
+  std::string intake_text;           ///< the Intake paste box
+  std::string lower_tab = "Intake";  ///< the open tab of the lower-right tools window
+  bool focus_intake = false;         ///< Ctrl+V was pressed outside a text field
+  bool spinning = false;             ///< the body turns continuously (toolbar toggle)
+  bool rebuild_fonts = false;        ///< the UI scale changed
+  FramebufferRect scene_viewport;    ///< where the Scene's 3D view goes
+  FramebufferRect gimbal_viewport;   ///< where the Gimbal rings go
+  std::string status;                ///< one line at the foot of the toolbar ("copied ...")
   /// Screen rectangles of named widgets this frame ("quaternion.0", "undo"...), so test
   /// scripts can click them like a person would.
   std::map<std::string, ImVec4> widgets;

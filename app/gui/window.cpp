@@ -191,7 +191,9 @@ void draw_panels(Ui& ui) {
     ImGui::End();
   }
   place(right_x + gimbal_w, bottom_y, right_w - gimbal_w, bottom_h);
-  if (ImGui::Begin("Intake", nullptr, fixed)) draw_lower_tabs(ui);
+  // Titled by the open tab; "###tools" keeps one window identity whichever tab is open.
+  const std::string tools_title = ui.lower_tab + "###tools";
+  if (ImGui::Begin(tools_title.c_str(), nullptr, fixed)) draw_lower_tabs(ui);
   ImGui::End();
 }
 
