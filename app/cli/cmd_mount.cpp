@@ -200,6 +200,11 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
     return bad(io, "unexpected '" + o.positional.front() +
                        "': give mounts with --nominal and --measured (see --help)");
   }
+  for (const char* picture_option : {"--select", "--vehicle-model", "--sensor-names"}) {
+    if (o.has(picture_option) && !o.has("--sheet-png"))
+      return bad(io,
+                 std::string(picture_option) + " shapes the check-sheet picture: give --sheet-png F.png too");
+  }
   MountSetup setup;
   std::vector<std::string> warnings;
   if (auto path = o.last("--setup")) {

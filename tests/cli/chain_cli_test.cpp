@@ -57,6 +57,21 @@ TEST(ChainCliTest, RenderOptionsNeedAChainAndKnownFrames) {
 #endif
 }
 
+TEST(ChainCliTest, PictureOptionsWithoutAPictureAreRefused) {
+  // --select, --vehicle-model and --sensor-names shape only the sheet's picture: without
+  // --sheet-png they would be silently ignored, so the command refuses them.
+  for (const std::vector<std::string>& extra : std::vector<std::vector<std::string>>{
+           {"--select", "imu"}, {"--vehicle-model", "rover"}, {"--sensor-names", "X Y Z"}}) {
+    std::vector<std::string> args = {"mount", "--setup", kDemoSetup};
+    args.insert(args.end(), extra.begin(), extra.end());
+    const CliRun r = run_cli(args);
+    EXPECT_EQ(r.code, kExitBadInput) << extra[0];
+    EXPECT_NE(r.err.find(extra[0]), std::string::npos) << r.err;
+    EXPECT_NE(r.err.find("--sheet-png"), std::string::npos) << r.err;
+    EXPECT_TRUE(r.out.empty()) << r.out;
+  }
+}
+
 #ifdef ATTISCOPE_TEST_HAVE_RENDER
 TEST(ChainCliTest, RenderDrawsTheChain) {
   const std::string plain = temp_path("plain.png"), chained = temp_path("chained.png");
