@@ -14,32 +14,14 @@
 #include "attiscope/render/mount_picture.hpp"
 #include "attiscope/render/scene_renderer.hpp"
 #include "support/check.hpp"
+#include "support/render_suite.hpp"
 
 namespace attiscope::render {
 namespace {
 
 constexpr double kDeg = 3.14159265358979323846 / 180.0;
 
-class ChainPictureTest : public ::testing::Test {
- protected:
-  static void SetUpTestSuite() {
-    auto ctx = HeadlessContext::create();
-    ASSERT_TRUE(ctx.ok()) << ctx.error().describe();
-    context_ = ctx.value();
-    auto r = SceneRenderer::create();
-    ASSERT_TRUE(r.ok()) << r.error().describe();
-    renderer_ = std::move(r.value()).release();
-  }
-  static void TearDownTestSuite() {
-    delete renderer_;
-    renderer_ = nullptr;
-    context_.reset();
-  }
-  static std::shared_ptr<HeadlessContext> context_;
-  static SceneRenderer* renderer_;
-};
-std::shared_ptr<HeadlessContext> ChainPictureTest::context_;
-SceneRenderer* ChainPictureTest::renderer_ = nullptr;
+class ChainPictureTest : public test::RenderSuite {};
 
 Eigen::Vector3d color_at(const Image& img, int x, int y) {
   const std::uint8_t* p = img.pixel(std::clamp(x, 0, img.width - 1), std::clamp(y, 0, img.height - 1));

@@ -11,33 +11,14 @@
 #include "attiscope/render/headless.hpp"
 #include "attiscope/render/scene_renderer.hpp"
 #include "support/check.hpp"
+#include "support/render_suite.hpp"
 
 namespace attiscope::render {
 namespace {
 
 constexpr double kDeg = 3.14159265358979323846 / 180.0;
 
-/// One headless context and renderer for the whole suite (creating them costs ~40 ms).
-class RenderTest : public ::testing::Test {
- protected:
-  static void SetUpTestSuite() {
-    auto ctx = HeadlessContext::create();
-    ASSERT_TRUE(ctx.ok()) << ctx.error().describe();
-    context_ = ctx.value();
-    auto r = SceneRenderer::create();
-    ASSERT_TRUE(r.ok()) << r.error().describe();
-    renderer_ = std::move(r.value()).release();
-  }
-  static void TearDownTestSuite() {
-    delete renderer_;
-    renderer_ = nullptr;
-    context_.reset();
-  }
-  static std::shared_ptr<HeadlessContext> context_;
-  static SceneRenderer* renderer_;
-};
-std::shared_ptr<HeadlessContext> RenderTest::context_;
-SceneRenderer* RenderTest::renderer_ = nullptr;
+class RenderTest : public test::RenderSuite {};
 
 /// Mean colour (0..1) of the 3x3 pixels around a pixel position.
 Eigen::Vector3d mean_color(const Image& img, const Eigen::Vector2d& at) {
