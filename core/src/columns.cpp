@@ -985,49 +985,9 @@ bool read_rows(RowReader& r, const char* const begin, const char* const end, boo
       bad = true;
       reason = "expected " + std::to_string(m.column_count) + " fields, found " + std::to_string(field);
     }
-    if (!bad) {
-      double w, x, y, z;
-      if (quat) {
-        w = values[1];
-        x = values[2];
-        y = values[3];
-        z = values[4];
-        const double n2 = w * w + x * x + y * y + z * z;
-        if (!std::isfinite(n2)) {
-          bad = true;
-          reason = "a quaternion number is NaN or infinite";
-        } else if (n2 < kMinQuaternionNorm * kMinQuaternionNorm) {
-          bad = true;
-          reason = "zero quaternion";
-        }
-      } else {
-        std::array<double, 9> n{};
-        for (int k = 0; k < 9; ++k) n[static_cast<std::size_t>(k)] = values[k + 1];
-        const Eigen::Matrix3d a = matrix_from_numbers(
-            n, m.form == TrackForm::MatrixRows ? MatrixStorage::Rows : MatrixStorage::Columns);
-        auto rot = from_matrix(a);
-        if (!rot) {
-          bad = true;
-          reason = rot.error().message;
-          w = x = y = z = 0;
-        } else {
-          const Eigen::Quaterniond q = rot.value().stored_quaternion();
-          w = q.w();
-          x = q.x();
-          y = q.y();
-          z = q.z();
-        }
-      }
-      if (!bad) {
-        // Without a time column the part's own sample index; the caller shifts later parts.
-        const double t = m.time_column >= 0 ? values[0] * m.time_scale : static_cast<double>(track.qw.size());
-        track.time_s.push_back(t);
-        track.qw.push_back(w);
-        track.qx.push_back(x);
-        track.qy.push_back(y);
-        track.qz.push_back(z);
-      }
-    }
+    // Without a time column push_row numbers the part's own samples; the caller shifts
+    // later parts.
+    if (!bad && !push_row(m, quat, values, &track, &reason)) bad = true;
     if (bad) track.bad_rows.push_back({line, reason});
     p = next;
   }
