@@ -46,8 +46,9 @@ const char* kMountHelp =
     "                     `sx sy sz vx vy vz [w]`, a direction in sensor axes, the same direction in\n"
     "                     vehicle axes, and a weight (default 1); '#' starts a comment; - is stdin\n"
     "  --tolerance DEG    largest error that passes (default 0.5); exit 1 beyond it\n"
-    "  --vehicle CODE     where the vehicle's x, y, z point: FRD (default), FLU, ... letters from\n"
-    "                     F B R L U D\n"
+    "  --vehicle CODE     where the vehicle's x, y, z point: FRD, FLU, ... letters from F B R L U D;\n"
+    "                     default: the setup file's, else the --convention file's body frame,\n"
+    "                     else FRD\n"
     "  --setup FILE       read the nominal, measured, tolerance and vehicle axes from a mount\n"
     "                     setup file (TOML); options given here override it\n"
     "  --save FILE        write the setup (with the measured mount) to FILE, atomically\n"
@@ -212,6 +213,8 @@ int run_mount(const std::vector<std::string>& args, Streams io) {
     if (!s) return bad(io, *path + ": " + s.error().describe());
     setup = s.value();
   }
+  // Without a setup file the turns are named in the house's body frame when one is loaded.
+  if (!o.has("--setup")) setup.vehicle_axes = default_vehicle_axes(o.convention ? &*o.convention : nullptr);
   VehicleAxes names = setup.vehicle_axes;
   if (auto code = o.last("--vehicle")) {
     auto v = parse_vehicle_axes(*code);

@@ -29,6 +29,9 @@ struct MountPanelState {
   std::string vectors_text;                 ///< `sx sy sz vx vy vz [w]` lines
   float tolerance_deg = 0.5f;
   std::string axes_code = "FRD";
+  /// The vehicle axes follow the loaded house convention's body frame (FRD when none is
+  /// loaded) until the person types their own or a setup file names them.
+  bool axes_from_house = true;
   std::string sheet_base = "mount-check";  ///< export writes BASE.png and BASE.txt
   std::string message;                     ///< the last export's outcome
   // The frame chain (world -> vehicle -> mount plate -> sensor ...), from a mount setup file.

@@ -169,14 +169,29 @@ void measured_inputs(Ui& ui) {
 
 void settings_inputs(Ui& ui) {
   MountPanelState& st = ui.mount;
-  ImGui::SetNextItemWidth(6.0f * ImGui::GetFontSize());
+  ImGui::SetNextItemWidth(8.0f * ImGui::GetFontSize());
   ImGui::InputFloat("tolerance deg", &st.tolerance_deg, 0.1f, 1.0f, "%.3f");
   if (st.tolerance_deg < 0.0f) st.tolerance_deg = 0.0f;
   record_widget(ui, "mount.tolerance");
   ImGui::SameLine();
+  ImGui::AlignTextToFramePadding();
+  ImGui::TextUnformatted("vehicle axes");
+  ImGui::SameLine();
   ImGui::SetNextItemWidth(4.0f * ImGui::GetFontSize());
-  text_field("vehicle axes", st.axes_code, 16, false);
+  if (st.axes_from_house) {
+    const DisplayConvention& dc = ui.doc.convention();
+    st.axes_code = default_vehicle_axes(dc.path.empty() ? nullptr : &dc.house).code();
+  }
+  if (text_field("##vehicle_axes", st.axes_code, 16, false)) st.axes_from_house = false;
   record_widget(ui, "mount.axes");
+  if (!st.axes_from_house) {
+    ImGui::SameLine();
+    if (ImGui::SmallButton("house")) st.axes_from_house = true;
+    record_widget(ui, "mount.axes_house");
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Name the vehicle axes as the house convention's body frame");
+  } else if (ImGui::IsItemHovered()) {
+    ImGui::SetTooltip("From the house convention's body frame (FRD when no house file is loaded)");
+  }
 }
 
 /// Loads a mount setup's frame chain, vehicle axes and tolerance into the panel; on an error
@@ -191,6 +206,7 @@ void load_setup(Ui& ui) {
   }
   st.chain = setup->chain;
   st.axes_code = setup->vehicle_axes.code();
+  st.axes_from_house = false;
   st.tolerance_deg = static_cast<float>(setup->tolerance_deg);
   st.selected_frame = st.chain.frames().empty() ? "" : st.chain.frames().back();
   st.chain_message = "loaded " + std::to_string(st.chain.frames().size()) + " frames from " + st.setup_path;
@@ -400,6 +416,8 @@ void draw_mount_panel(Ui& ui) {
   j["caution"] = kMountCaution;
   j["problems"] = problems;
   j["message"] = st.message;
+  j["vehicle_axes"] = st.axes_code;
+  j["vehicle_axes_from_house"] = st.axes_from_house;
   j["result"] = result ? mount_json(*result) : nlohmann::json();
   j["chain"] = chain_view_dump(ui);
 }

@@ -170,8 +170,10 @@ void draw_panels(Ui& ui) {
 
   const float right_x = left_w;
   const float right_w = std::max(1.0f, w - left_w);
-  // The Track tab takes the Gimbal rings' place and more height: its plots need the room.
-  const bool wide = ui.track.tab_open_last;
+  // The tabs with wide forms or plots (Mount check, House convention, Track) take the Gimbal
+  // rings' place and more height.
+  const bool wide =
+      ui.track.tab_open_last || ui.lower_tab == "Mount check" || ui.lower_tab == "House convention";
   const float scene_h = std::floor(body_h * (wide ? 0.4f : 0.54f));
   const ImGuiWindowFlags view = fixed | ImGuiWindowFlags_NoBackground | ImGuiWindowFlags_NoScrollbar |
                                 ImGuiWindowFlags_NoScrollWithMouse;

@@ -84,6 +84,13 @@ Expected<VehicleAxes> body_vehicle_axes(const FrameAxes& body) {
   return parse_vehicle_axes(v.code());  // refuses two axes on one line and a left-handed frame
 }
 
+VehicleAxes default_vehicle_axes(const HouseConvention* house) {
+  if (house) {
+    if (auto v = body_vehicle_axes(house->body)) return v.value();
+  }
+  return VehicleAxes{};
+}
+
 FrameAxes body_flu() {
   return body_frame_axes(VehicleAxes{{BodyDirection::Forward, BodyDirection::Left, BodyDirection::Up}});
 }

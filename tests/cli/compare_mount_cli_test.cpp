@@ -236,6 +236,17 @@ TEST(MountCliTest, ListsTheTwentyFourMounts) {
   const CliRun r = run_cli({"mount", "--list-aligned", "--json"});
   ASSERT_EQ(r.code, kExitOk);
   EXPECT_EQ(r.json()["mounts"].size(), 24u);
+  EXPECT_EQ(r.json()["vehicle_axes"], "FRD");
+}
+
+TEST(MountCliTest, VehicleAxesFollowTheHouseConventionUnlessGiven) {
+  const std::string rover = std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/orchard-rover.toml";
+  const CliRun house = run_cli({"mount", "--list-aligned", "--json", "--convention", rover});
+  ASSERT_EQ(house.code, kExitOk) << house.err;
+  EXPECT_EQ(house.json()["vehicle_axes"], "FLU") << "the rover's body frame";
+  const CliRun given = run_cli({"mount", "--list-aligned", "--json", "--convention", rover, "--vehicle", "FRD"});
+  ASSERT_EQ(given.code, kExitOk) << given.err;
+  EXPECT_EQ(given.json()["vehicle_axes"], "FRD");
 }
 
 }  // namespace

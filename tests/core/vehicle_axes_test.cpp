@@ -108,6 +108,18 @@ TEST(VehicleAxesTest, HouseBodyFramesComeFromTheVehicleTable) {
   EXPECT_FALSE(body_vehicle_axes(FrameAxes{{"forward", "left", "down"}, {"x", "y", "z"}}).ok());  // mirror
 }
 
+TEST(VehicleAxesTest, MountChecksNameTurnsInTheHouseBodyFrame) {
+  EXPECT_EQ(default_vehicle_axes(nullptr).code(), "FRD") << "no house file: FRD";
+  HouseConvention c;
+  c.body = body_camera_rdf();
+  EXPECT_EQ(default_vehicle_axes(&c).code(), "RDF");
+  c.body = body_flu();
+  EXPECT_EQ(default_vehicle_axes(&c).code(), "FLU");
+  // A body written in words that are not vehicle directions falls back to FRD.
+  c.body = FrameAxes{{"starboard", "aft", "up"}, {"x", "y", "z"}};
+  EXPECT_EQ(default_vehicle_axes(&c).code(), "FRD");
+}
+
 TEST(VehicleAxesTest, HouseSentencesAgreeWithVehicleTurnSenses) {
   // Common practice (ISO 1151, from memory): in FRD a positive turn about y raises the nose,
   // about z turns it right. The house sentence and the vehicle words say the same.

@@ -108,6 +108,23 @@ TEST_F(CheckPanelsTest, TypedMountGivesTheCommandLinesError) {
   }
 }
 
+TEST_F(CheckPanelsTest, VehicleAxesFollowTheHouseBodyFrameUntilTyped) {
+  const std::string rover = std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/orchard-rover.toml";
+  ASSERT_EQ(run("frames 2\nclick tab.mount\nframes 2\ndump " + path("house.json") +
+                    "\nclick mount.axes\nkey ctrl+a\ntype RDF\nframes 2\ndump " + path("typed.json") +
+                    "\nclick mount.axes_house\nframes 2\ndump " + path("back.json") + "\n",
+                "", {rover}),
+            0)
+      << err_;
+  // The same rule as `mount --convention FILE` without --vehicle.
+  const auto cli = cli_json({"mount", "--list-aligned", "--json", "--convention", rover});
+  EXPECT_EQ(dump("house.json")["panels"]["mount"]["vehicle_axes"], cli["vehicle_axes"]);
+  EXPECT_EQ(dump("house.json")["panels"]["mount"]["vehicle_axes"], "FLU");
+  EXPECT_EQ(dump("typed.json")["panels"]["mount"]["vehicle_axes"], "RDF");
+  EXPECT_FALSE(dump("typed.json")["panels"]["mount"]["vehicle_axes_from_house"].get<bool>());
+  EXPECT_EQ(dump("back.json")["panels"]["mount"]["vehicle_axes"], "FLU");
+}
+
 TEST_F(CheckPanelsTest, VectorBoxErrorNamesLineAndSolvesLikeTheCommandLine) {
   // Two resting directions in sensor and vehicle axes (invented bench pairs): sensor x points
   // along vehicle -y, sensor z along vehicle z.

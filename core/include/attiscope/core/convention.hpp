@@ -55,6 +55,11 @@ FrameAxes body_frame_axes(const VehicleAxes& v);
 /// The vehicle axes of a house body frame (the Mount check takes the house's body as the
 /// vehicle's). Error when an axis is not a body word, or the frame is not right-handed.
 Expected<VehicleAxes> body_vehicle_axes(const FrameAxes& body);
+struct HouseConvention;
+/// The vehicle axes a mount check names its turns with when none are given: the body frame
+/// of a loaded house convention (null: none loaded), or FRD when there is none or its body
+/// is not written in vehicle words.
+VehicleAxes default_vehicle_axes(const HouseConvention* house);
 
 /// "ENU", "NED" (world) or "FLU", "FRD", "RDF" (body) when the directions are one of the
 /// named frames, else "custom".
