@@ -188,7 +188,8 @@ void settings_inputs(Ui& ui) {
     ImGui::SameLine();
     if (ImGui::SmallButton("house")) st.axes_from_house = true;
     record_widget(ui, "mount.axes_house");
-    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Name the vehicle axes as the house convention's body frame");
+    if (ImGui::IsItemHovered())
+      ImGui::SetTooltip("Name the vehicle axes as the house convention's body frame");
   } else if (ImGui::IsItemHovered()) {
     ImGui::SetTooltip("From the house convention's body frame (FRD when no house file is loaded)");
   }

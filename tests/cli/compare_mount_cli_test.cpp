@@ -244,7 +244,8 @@ TEST(MountCliTest, VehicleAxesFollowTheHouseConventionUnlessGiven) {
   const CliRun house = run_cli({"mount", "--list-aligned", "--json", "--convention", rover});
   ASSERT_EQ(house.code, kExitOk) << house.err;
   EXPECT_EQ(house.json()["vehicle_axes"], "FLU") << "the rover's body frame";
-  const CliRun given = run_cli({"mount", "--list-aligned", "--json", "--convention", rover, "--vehicle", "FRD"});
+  const CliRun given =
+      run_cli({"mount", "--list-aligned", "--json", "--convention", rover, "--vehicle", "FRD"});
   ASSERT_EQ(given.code, kExitOk) << given.err;
   EXPECT_EQ(given.json()["vehicle_axes"], "FRD");
 }
