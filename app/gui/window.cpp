@@ -163,7 +163,7 @@ void draw_panels(Ui& ui) {
   ImGui::End();
 
   const float body_h = std::max(1.0f, h - toolbar_h);
-  const float left_w = std::min(w, std::max(std::min(w, 470.0f * ui.scale), 0.42f * w));
+  const float left_w = std::min(w, std::max(std::min(w, 470.0f * ui.scale), 0.38f * w));
   place(0, toolbar_h, left_w, body_h);
   if (ImGui::Begin("Readouts", nullptr, fixed)) draw_readouts(ui);
   ImGui::End();
@@ -186,7 +186,10 @@ void draw_panels(Ui& ui) {
   }
   const float bottom_y = toolbar_h + scene_h;
   const float bottom_h = std::max(1.0f, body_h - scene_h);
-  const float gimbal_w = wide ? 0.0f : std::floor(right_w * 0.6f);
+  // The tools window keeps room for its forms (about 26 characters) while the rings keep at
+  // least 40% of the width.
+  const float tools_w = std::min(std::max(0.4f * right_w, 26.0f * ImGui::GetFontSize()), 0.6f * right_w);
+  const float gimbal_w = wide ? 0.0f : std::floor(right_w - tools_w);
   if (ui.settings.show_gimbal && !wide) {
     place(right_x, bottom_y, gimbal_w, bottom_h);
     if (ImGui::Begin("Gimbal rings", nullptr, view)) draw_gimbal_panel(ui);
