@@ -28,6 +28,8 @@ constexpr double kPi = 3.14159265358979323846;
 constexpr float kFontBakePx = 44.0f;
 constexpr float kLabelPerViewHeight = 1.0f / 21.0f;
 constexpr float kLabelMinPx = 16.0f, kLabelMaxPx = 44.0f;
+/// Clear space kept around a label when labels are placed apart, pixels.
+constexpr double kLabelAirPx = 4.0;
 /// Half-size of the ground grid, in scene units.
 constexpr float kGridExtent = 6.0f;
 /// Ring tube radius, segments around the ring and around the tube.
@@ -529,16 +531,29 @@ struct SceneRenderer::State {
     draw_mesh(arrow, f, from, Eigen::Vector4f(color.x(), color.y(), color.z(), 1.0f), 1.0f, glow);
   }
 
-  void add_label(const std::string& text, const Eigen::Vector2d& at_px, const Eigen::Vector3f& color) {
-    if (font.coverage.empty()) return;
-    const float size = std::clamp(static_cast<float>(view_h) * kLabelPerViewHeight, kLabelMinPx, kLabelMaxPx);
+  /// The width in pixels of a label drawn `size` pixels high.
+  float label_width(const std::string& text, float size) const {
     const float s = size / font.pixel_height;
-    // Measure, then centre the text on the point.
     float width = 0.0f;
     for (char ch : text) {
       if (ch >= 32 && ch < 127) width += font.glyphs[ch - 32].advance * s;
     }
-    float pen_x = static_cast<float>(at_px.x()) - 0.5f * width;
+    return width;
+  }
+
+  /// The pixels a label centred on `at_px` covers (with its halo and a little air).
+  Eigen::AlignedBox2d label_box(const std::string& text, const Eigen::Vector2d& at_px, float size) const {
+    const Eigen::Vector2d half(0.5 * static_cast<double>(label_width(text, size)) + kLabelAirPx,
+                               0.42 * static_cast<double>(size) + kLabelAirPx);
+    return Eigen::AlignedBox2d(at_px - half, at_px + half);
+  }
+
+  void add_label(const std::string& text, const Eigen::Vector2d& at_px, const Eigen::Vector3f& color,
+                 float size) {
+    if (font.coverage.empty()) return;
+    const float s = size / font.pixel_height;
+    // Centre the text on the point.
+    float pen_x = static_cast<float>(at_px.x()) - 0.5f * label_width(text, size);
     const float pen_y = static_cast<float>(at_px.y()) + 0.36f * size;
     const float iw = 1.0f / static_cast<float>(font.width), ih = 1.0f / static_cast<float>(font.height);
     for (char ch : text) {
@@ -787,15 +802,38 @@ void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
   const Eigen::Vector3f axis_colors[3] = {vec(palette.axis_x) * 0.85f, vec(palette.axis_y) * 0.8f,
                                           vec(palette.axis_z) * 0.85f};
   // A label sits just beyond its tip, pushed outward on the screen from the arrow's base.
+  // Where that spot is taken by a label placed earlier, it moves further out or turns
+  // aside, so names never print over each other (the first free spot wins).
+  const float size = std::clamp(static_cast<float>(h) * kLabelPerViewHeight, kLabelMinPx, kLabelMaxPx);
+  std::vector<Eigen::AlignedBox2d> taken;
   auto place = [&](const Eigen::Vector3d& base, const Eigen::Vector3d& tip, const std::string& text,
                    const Eigen::Vector3f& color) {
     const Projected pt = project_to_pixel(st.camera, st.world, w, h, tip);
     const Projected pb = project_to_pixel(st.camera, st.world, w, h, base);
     if (!pt.in_front) return;
     Eigen::Vector2d d = pt.pixel - (pb.in_front ? pb.pixel : pt.pixel);
-    const double size = std::clamp(static_cast<float>(h) * kLabelPerViewHeight, kLabelMinPx, kLabelMaxPx);
     d = d.norm() > 1e-6 ? d.normalized() : Eigen::Vector2d(0, -1);
-    add_label(text, pt.pixel + d * size * 0.75, color);
+    static constexpr double kReach[] = {0.75, 1.5, 2.4};                       // label sizes out from the tip
+    static constexpr double kTurn[] = {0.0, 0.7, -0.7, 1.4, -1.4, 2.2, -2.2};  // radians from d
+    Eigen::Vector2d at = pt.pixel + d * (static_cast<double>(size) * kReach[0]);
+    bool found = false;
+    for (double reach : kReach) {
+      for (double turn : kTurn) {
+        const Eigen::Vector2d c =
+            pt.pixel + Eigen::Rotation2Dd(turn) * d * (static_cast<double>(size) * reach);
+        const Eigen::AlignedBox2d box = label_box(text, c, size);
+        const bool free = std::none_of(taken.begin(), taken.end(),
+                                       [&](const Eigen::AlignedBox2d& t) { return t.intersects(box); });
+        if (free) {
+          at = c;
+          found = true;
+          break;
+        }
+      }
+      if (found) break;
+    }
+    taken.push_back(label_box(text, at, size));
+    add_label(text, at, color, size);
   };
   if (st.show_world_triad) {
     const Eigen::Vector3d o = world_triad_origin(st);

@@ -197,11 +197,14 @@ TEST_F(ChainPictureTest, SheetShowsVehicleBothMountsAndTheCaution) {
                   .norm(),
               0.05)
         << views[i].name << ": no vehicle ahead of its centre";
-    // The measured sensor's z arrow tip (blue) is drawn.
+    // The measured sensor's z arrow tip (blue) is drawn, in every view but the one from
+    // above (where it points down, away from the eye, hidden by the sensor itself).
     const Eigen::Vector3d sz = measured.matrix().col(2) * kBodyTriadLength * 0.8;
-    EXPECT_TRUE(any_near(*page, pixel_of(*scene, sz) + offset, 4,
-                         [](const Eigen::Vector3d& c) { return dominated_by(c, 2); }))
-        << views[i].name << ": no sensor z arrow";
+    if (views[i].name != "from above") {
+      EXPECT_TRUE(any_near(*page, pixel_of(*scene, sz) + offset, 4,
+                           [](const Eigen::Vector3d& c) { return dominated_by(c, 2); }))
+          << views[i].name << ": no sensor z arrow";
+    }
   }
   // The nominal ghost changes the picture: the same sheet with the nominal equal to the
   // measured differs around the sensor.
