@@ -8,7 +8,7 @@ packages=(
   build-essential cmake pkg-config clang clang-format
   libeigen3-dev nlohmann-json3-dev libtomlplusplus-dev
   libimgui-dev libstb-dev libglfw3-dev libegl-dev libgl-dev libgl1-mesa-dri libpng-dev
-  libtinyobjloader-dev fonts-dejavu-core
+  libdeflate-dev libtinyobjloader-dev fonts-dejavu-core
   libgtest-dev libgmock-dev libbenchmark-dev
   python3-scipy python3-transforms3d python3-sympy python3-pandas
   xvfb xauth xdotool imagemagick

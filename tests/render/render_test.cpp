@@ -5,6 +5,7 @@
 
 #include <array>
 #include <cmath>
+#include <cstdint>
 #include <memory>
 
 #include "attiscope/core/euler.hpp"
@@ -209,6 +210,27 @@ TEST_F(RenderTest, PngRoundTrip) {
   EXPECT_EQ(back.value().height, 64);
   EXPECT_EQ(back.value().rgba, img.rgba);  // opaque picture: alpha 255 both ways
   EXPECT_FALSE(write_png(::testing::TempDir() + "no-such-folder/x.png", img).ok());
+}
+
+// Noise does not compress: the encoder's output buffer must hold the worst case, and an
+// odd size checks the row layout (3 bytes a pixel plus the filter byte). Fixed seed kSeed.
+TEST(PngFile, NoisePictureRoundTrip) {
+  Image img;
+  img.width = 257;
+  img.height = 131;
+  img.rgba.resize(static_cast<std::size_t>(img.width) * img.height * 4);
+  std::uint32_t state = test::kSeed;
+  for (std::size_t i = 0; i < img.rgba.size(); ++i) {
+    state = state * 1664525u + 1013904223u;  // Numerical Recipes' LCG (common practice)
+    img.rgba[i] = (i % 4 == 3) ? 255 : static_cast<std::uint8_t>(state >> 24);
+  }
+  const std::string path = ::testing::TempDir() + "render_test_noise.png";
+  ASSERT_TRUE(write_png(path, img).ok());
+  auto back = read_png(path);
+  ASSERT_TRUE(back.ok()) << back.error().describe();
+  EXPECT_EQ(back.value().width, img.width);
+  EXPECT_EQ(back.value().height, img.height);
+  EXPECT_EQ(back.value().rgba, img.rgba) << "seed " << test::kSeed;
 }
 
 }  // namespace

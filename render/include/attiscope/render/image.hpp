@@ -1,4 +1,4 @@
-// image.hpp: an RGBA8 picture in memory and its PNG file (libpng, zlib level 1: fast).
+// image.hpp: an RGBA8 picture in memory and its PNG file (written with libdeflate at level 1: fast).
 #pragma once
 
 #include <cstdint>
@@ -20,8 +20,8 @@ struct Image {
   }
 };
 
-/// zlib level for write_png: 1 is several times faster than the default for a few percent
-/// larger files.
+/// Deflate level for write_png (libdeflate): 1 is several times faster than the default for
+/// a few percent larger files.
 inline constexpr int kPngCompressionLevel = 1;
 
 /// Writes an 8-bit RGB PNG (alpha dropped: the pictures are opaque). Error with the reason
