@@ -2,7 +2,9 @@
 // made headless (EGL surfaceless context, no display needed).
 #include <cstdlib>
 #include <iostream>
+#include <optional>
 #include <sstream>
+#include <thread>
 
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/mount.hpp"
@@ -246,9 +248,15 @@ int run_render(const std::vector<std::string>& args, Streams io) {
   const render::Image image = renderer.value()->render_image(scene);
   for (const std::string& w : renderer.value()->warnings())
     io.err << "attiscope render: warning: " << w << "\n";
-  auto written = render::write_png(*out, image);
-  if (!written) {
-    io.err << "attiscope render: " << written.error().describe() << "\n";
+  // The PNG is encoded on a second thread while this one releases the renderer and the GL
+  // context (llvmpipe's threads, its memory): both take CPU time, and they overlap.
+  std::optional<Expected<bool> > written;
+  std::thread encoder([&] { written = render::write_png(*out, image); });
+  renderer.value().reset();
+  context.value().reset();
+  encoder.join();
+  if (!*written) {
+    io.err << "attiscope render: " << written->error().describe() << "\n";
     return kExitBadInput;
   }
   if (scene.rings && scene.rings->at_lock) {

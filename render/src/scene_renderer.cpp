@@ -5,6 +5,7 @@
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
+#include <future>
 #include <map>
 #include <optional>
 #include <string>
@@ -15,6 +16,7 @@
 #include "chain_overlay.hpp"
 #include "font.hpp"
 #include "gl.hpp"
+#include "image_text.hpp"
 #include "mesh_builder.hpp"
 #include "overlays.hpp"
 #include "shaders.hpp"
@@ -435,10 +437,19 @@ struct SceneRenderer::State {
 
   detail::BakedFont font;
   bool font_tried = false;
+  /// Why the font could not be baked (declared before font_job, which writes it until the
+  /// job is gone).
+  std::string font_problem;
+  /// The font baked on another thread from create() on (it reads and rasterises a font
+  /// file, independent of GL), so it is ready when the first labels are placed.
+  std::future<detail::BakedFont> font_job;
   gl::Texture atlas;
   gl::VertexArray text_vao;
   gl::Buffer text_vbo;
   std::vector<TextVertex> text_vertices;
+  /// Set by render_image: the labels go into the read-back picture on the CPU (the same
+  /// blend as the text shader), so a one-off picture compiles no text shader variant.
+  bool labels_on_cpu = false;
 
   // Per-frame camera values.
   Eigen::Matrix4f view_proj;
@@ -474,10 +485,9 @@ struct SceneRenderer::State {
   void ensure_font() {
     if (font_tried) return;
     font_tried = true;
-    std::string problem;
-    font = detail::bake_label_font(kFontBakePx, &problem);
+    font = font_job.valid() ? font_job.get() : detail::bake_label_font(kFontBakePx, &font_problem);
     if (font.coverage.empty()) {
-      warnings.push_back(problem);
+      warnings.push_back(font_problem);
       return;
     }
     atlas = gl::make_texture();
@@ -583,18 +593,17 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   std::unique_ptr<SceneRenderer> r(new SceneRenderer());
   State& s = *r->state_;
   s.options = options;
+  s.font_job =
+      std::async(std::launch::async, [&s] { return detail::bake_label_font(kFontBakePx, &s.font_problem); });
   auto mesh_p = gl::make_program("mesh", detail::kMeshVertex, detail::kMeshFragment);
   if (!mesh_p) return mesh_p.error();
   auto grid_p = gl::make_program("grid", detail::kGridVertex, detail::kGridFragment);
   if (!grid_p) return grid_p.error();
   auto post_p = gl::make_program("post", detail::kFullscreenVertex, detail::kPostFragment);
   if (!post_p) return post_p.error();
-  auto text_p = gl::make_program("text", detail::kTextVertex, detail::kTextFragment);
-  if (!text_p) return text_p.error();
   s.mesh_program = std::move(mesh_p.value());
   s.grid_program = std::move(grid_p.value());
   s.post_program = std::move(post_p.value());
-  s.text_program = std::move(text_p.value());
   const GLuint mp = s.mesh_program.get();
   s.mu = {glGetUniformLocation(mp, "u_model"),     glGetUniformLocation(mp, "u_normal_matrix"),
           glGetUniformLocation(mp, "u_view_proj"), glGetUniformLocation(mp, "u_eye"),
@@ -796,6 +805,9 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
 
 void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
   text_vertices.clear();
+  // add_label sizes the text by the view's height: this view's, not the last one drawn.
+  view_w = w;
+  view_h = h;
   if (!st.show_labels) return;
   ensure_font();
   if (font.coverage.empty()) return;
@@ -866,6 +878,15 @@ void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
 
 void SceneRenderer::State::draw_labels(int w, int h) {
   if (text_vertices.empty()) return;
+  if (!text_program) {  // compiled on the first labels drawn on the GPU
+    auto text_p = gl::make_program("text", detail::kTextVertex, detail::kTextFragment);
+    if (!text_p) {
+      warnings.push_back(text_p.error().message);
+      text_vertices.clear();
+      return;
+    }
+    text_program = std::move(text_p.value());
+  }
   glEnable(GL_BLEND);
   glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
   const GLuint tp = text_program.get();
@@ -955,7 +976,7 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
       gl::check("post pass");
     }
   }
-  s.draw_labels(w, h);
+  if (!s.labels_on_cpu) s.draw_labels(w, h);
   // Leave GL as the caller's drawing expects it.
   glDisable(GL_SCISSOR_TEST);
   glDisable(GL_DEPTH_TEST);
@@ -975,7 +996,9 @@ Image SceneRenderer::render_image(const SceneState& state) {
   GLint prev = 0;
   glGetIntegerv(GL_FRAMEBUFFER_BINDING, &prev);
   glBindFramebuffer(GL_FRAMEBUFFER, s.export_target.fbo.get());
+  s.labels_on_cpu = true;
   draw(state, Region{0, 0, w, h, h});
+  s.labels_on_cpu = false;
   glBindFramebuffer(GL_READ_FRAMEBUFFER, s.export_target.fbo.get());
   Image img;
   img.width = w;
@@ -997,6 +1020,16 @@ Image SceneRenderer::render_image(const SceneState& state) {
   }
   glBindFramebuffer(GL_FRAMEBUFFER, static_cast<GLuint>(prev));
   gl::check("read back");
+  if (!s.text_vertices.empty()) {
+    // Six vertices a glyph (add_label): a = (x0, y0, u0, v0), c = (x1, y1, u1, v1).
+    std::vector<detail::LabelQuad> quads;
+    for (std::size_t i = 0; i + 5 < s.text_vertices.size(); i += 6) {
+      const TextVertex& a = s.text_vertices[i];
+      const TextVertex& c = s.text_vertices[i + 2];
+      quads.push_back({a.x, a.y, c.x, c.y, a.u, a.v, c.u, c.v, {a.r, a.g, a.b}});
+    }
+    detail::draw_label_quads(&img, s.font, quads, s.palette.label_outline);
+  }
   return img;
 }
 

@@ -1,6 +1,8 @@
 // render_test.cpp: headless pictures of the scene. Each check is about what the picture
 // shows (pixel positions from the renderer's own projection, colours at those pixels),
 // never a golden image.
+#define GL_GLEXT_PROTOTYPES 1
+#include <GL/glcorearb.h>
 #include <gtest/gtest.h>
 
 #include <array>
@@ -210,6 +212,54 @@ TEST_F(RenderTest, PngRoundTrip) {
   EXPECT_EQ(back.value().height, 64);
   EXPECT_EQ(back.value().rgba, img.rgba);  // opaque picture: alpha 255 both ways
   EXPECT_FALSE(write_png(::testing::TempDir() + "no-such-folder/x.png", img).ok());
+}
+
+// render_image draws the axis labels into the read-back picture on the CPU; draw() into a
+// framebuffer draws them with the text shader. The two must agree: the same pixels changed
+// by the labels, within a few levels (the GPU blends and filters in fixed point).
+TEST_F(RenderTest, ExportLabelsMatchTheShaderDrawnOnes) {
+  constexpr int kW = 640, kH = 480;
+  constexpr int kTolerance = 4;  // levels of 255
+  SceneState s;
+  s.width_px = kW;
+  s.height_px = kH;
+  s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30, 20, 10) * kDeg);
+  const Image exported = renderer_->render_image(s);
+  SceneState bare = s;
+  bare.show_labels = false;
+  const Image unlabelled = renderer_->render_image(bare);
+
+  GLuint fbo = 0, color = 0;
+  glGenFramebuffers(1, &fbo);
+  glGenTextures(1, &color);
+  glBindTexture(GL_TEXTURE_2D, color);
+  glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, kW, kH, 0, GL_RGBA, GL_UNSIGNED_BYTE, nullptr);
+  glBindFramebuffer(GL_FRAMEBUFFER, fbo);
+  glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, color, 0);
+  renderer_->draw(s, Region{0, 0, kW, kH, kH});
+  std::vector<std::uint8_t> gpu(static_cast<std::size_t>(kW) * kH * 4);
+  glPixelStorei(GL_PACK_ALIGNMENT, 1);
+  glReadPixels(0, 0, kW, kH, GL_RGBA, GL_UNSIGNED_BYTE, gpu.data());
+  glBindFramebuffer(GL_FRAMEBUFFER, 0);
+  glDeleteTextures(1, &color);
+  glDeleteFramebuffers(1, &fbo);
+
+  int labelled = 0, worst = 0;
+  for (int y = 0; y < kH; ++y) {
+    for (int x = 0; x < kW; ++x) {
+      const std::uint8_t* g = &gpu[(static_cast<std::size_t>(kH - 1 - y) * kW + x) * 4];  // GL rows bottom up
+      const std::uint8_t* e = exported.pixel(x, y);
+      const std::uint8_t* u = unlabelled.pixel(x, y);
+      bool label = false;
+      for (int c = 0; c < 3; ++c) {
+        worst = std::max(worst, std::abs(int(g[c]) - int(e[c])));
+        label = label || std::abs(int(u[c]) - int(e[c])) > kTolerance;
+      }
+      labelled += label ? 1 : 0;
+    }
+  }
+  EXPECT_GT(labelled, 200) << "the labels should change a few hundred pixels";
+  EXPECT_LE(worst, kTolerance) << "export and window labels differ by up to " << worst << " levels";
 }
 
 // Noise does not compress: the encoder's output buffer must hold the worst case, and an
