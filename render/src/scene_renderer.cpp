@@ -805,9 +805,6 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
 
 void SceneRenderer::State::collect_labels(const SceneState& st, int w, int h) {
   text_vertices.clear();
-  // add_label sizes the text by the view's height: this view's, not the last one drawn.
-  view_w = w;
-  view_h = h;
   if (!st.show_labels) return;
   ensure_font();
   if (font.coverage.empty()) return;
