@@ -39,6 +39,7 @@ const char* stage_name(int s) {
     case TrackJobStage::Reading: return "reading";
     case TrackJobStage::Plotting: return "plotting";
     case TrackJobStage::Diagnosing: return "diagnosing";
+    case TrackJobStage::Exporting: return "exporting";
   }
   return "";
 }
@@ -143,6 +144,36 @@ void start_reanalyse(Ui& ui) {
   });
 }
 
+/// An export of the clean copy, streamed to the file (atomically) off the window thread,
+/// with the same progress bar and cancel as a load.
+void start_export(Ui& ui) {
+  TrackPanelState& st = ui.track;
+  if (!st.track || st.job) return;
+  auto job = std::make_unique<TrackJob>();
+  job->exports = true;
+  job->stage.store(static_cast<int>(TrackJobStage::Exporting));
+  job->total.store(st.track->size());
+  std::shared_ptr<const Track> track = st.track;
+  const TrackExportOptions options = st.export_options;
+  const std::string path = st.export_path;
+  st.export_changes.clear();
+  st.export_message = "exporting to " + path;
+  start_job(st, std::move(job), [track, options, path](TrackJob& j) {
+    auto r = export_clean_track(
+        *track, options, path,
+        [&j](std::size_t done, std::size_t total) {
+          j.done.store(done, std::memory_order_relaxed);
+          j.total.store(total, std::memory_order_relaxed);
+        },
+        &j.cancel);
+    if (!r) {
+      j.error = r.error();
+      return;
+    }
+    j.exported = std::move(r.value());
+  });
+}
+
 Rotation sample_rotation(const Track& t, std::size_t i) {
   return Rotation(Eigen::Quaterniond(t.qw[i], t.qx[i], t.qy[i], t.qz[i]));
 }
@@ -192,6 +223,18 @@ void take_finished_job(Ui& ui) {
   if (!st.job || !st.job->finished.load(std::memory_order_acquire)) return;
   std::unique_ptr<TrackJob> job = std::move(st.job);
   job->thread.join();
+  if (job->exports) {
+    if (job->exported) {
+      st.export_changes = std::move(job->exported->changes);
+      st.export_message = "wrote " + job->exported->path + ": " + std::to_string(st.track->size()) +
+                          " samples, " + std::to_string(st.export_changes.size()) + " changes";
+    } else {
+      st.export_changes.clear();
+      st.export_message = job->error ? job->error->describe() : std::string();
+    }
+    if (st.reanalyse_pending) start_reanalyse(ui);
+    return;
+  }
   if (job->error) {
     st.error = job->error->describe();
     st.message = job->cancel.load() ? "cancelled: the track shown (if any) is the one loaded before" : "";
@@ -915,17 +958,10 @@ void draw_export(Ui& ui) {
   text_field("##export_path", st.export_path, kPathCapacity, false);
   record_widget(ui, "track.export_path");
   ImGui::SameLine();
-  if (ImGui::Button("Export")) {
-    auto r = export_clean_track(*st.track, o, st.export_path);
-    if (r) {
-      st.export_changes = r.value().changes;
-      st.export_message = "wrote " + st.export_path + ": " + std::to_string(st.track->size()) + " samples, " +
-                          std::to_string(st.export_changes.size()) + " changes";
-    } else {
-      st.export_changes.clear();
-      st.export_message = r.error().describe();
-    }
-  }
+  const bool busy = st.job != nullptr;  // one job at a time: a load, a re-analysis or an export
+  if (busy) ImGui::BeginDisabled();
+  if (ImGui::Button("Export")) start_export(ui);
+  if (busy) ImGui::EndDisabled();
   record_widget(ui, "track.export");
   ImGui::TextWrapped(
       "Clean copy: normalised, sign-continuous%s; times and samples unchanged.",
@@ -1019,7 +1055,9 @@ void draw_open_row(Ui& ui) {
     const std::size_t total = st.job->total.load(std::memory_order_relaxed);
     const std::size_t done = st.job->done.load(std::memory_order_relaxed);
     const int stage = st.job->stage.load();
-    const float frac = stage > 0 ? 1.0f : total ? static_cast<float>(done) / static_cast<float>(total) : 0.0f;
+    const bool counted = stage == static_cast<int>(TrackJobStage::Reading) ||
+                         stage == static_cast<int>(TrackJobStage::Exporting);
+    const float frac = !counted ? 1.0f : total ? static_cast<float>(done) / static_cast<float>(total) : 0.0f;
     const std::string what =
         std::string(stage_name(stage)) + " " + num(100.0 * static_cast<double>(frac), 3) + "%";
     ImGui::ProgressBar(frac,

@@ -23,12 +23,13 @@
 #include "attiscope/core/track_analysis.hpp"
 #include "attiscope/core/track_clean.hpp"
 #include "attiscope/core/track_plot.hpp"
+#include "attiscope/core/track_report.hpp"
 #include "gui/plot_picture.hpp"
 
 namespace attiscope::gui {
 
 /// What a background job is doing (shown beside the progress bar).
-enum class TrackJobStage : int { Reading = 0, Plotting = 1, Diagnosing = 2 };
+enum class TrackJobStage : int { Reading = 0, Plotting = 1, Diagnosing = 2, Exporting = 3 };
 
 struct TrackJob {
   // Shared with the thread.
@@ -38,7 +39,9 @@ struct TrackJob {
   std::atomic<std::size_t> done{0};
   std::atomic<std::size_t> total{0};
   // Written by the thread before `finished`, read by the window thread after it.
-  bool reads_file = false;  ///< a load (else a re-analysis of the current track)
+  bool reads_file = false;  ///< a load (else a re-analysis of the current track, or an export)
+  bool exports = false;     ///< an export of the clean copy (export_clean_track)
+  std::optional<TrackExportSummary> exported;
   std::optional<Error> error;
   std::shared_ptr<const Track> track;
   std::unique_ptr<TrackPlotData> plot;  ///< null when the plot data did not change

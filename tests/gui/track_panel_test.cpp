@@ -281,7 +281,7 @@ TEST_F(TrackPanelTest, ExportWritesTheCommandLinesCleanCopy) {
   const std::string gui_out = path("gui.csv"), cli_out = path("cli.csv");
   ASSERT_EQ(run("frames 2\nwait\nframes 2\nclick track.tab.export\nframes 2\nclick track.export_path\nkey "
                 "ctrl+a\ntype " +
-                    gui_out + "\nframes 1\nclick track.export\nframes 2\ndump " + path("0.json") + "\n",
+                    gui_out + "\nframes 1\nclick track.export\nwait\nframes 2\ndump " + path("0.json") + "\n",
                 "", {log}),
             0)
       << err_;
