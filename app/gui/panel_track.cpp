@@ -1,7 +1,8 @@
 // panel_track.cpp: the Track panel: a whole pose log, loaded on a background thread (with
 // progress and cancel), its column mapping shown and editable, a timeline that moves the
 // document's pose (so the scene and every readout follow), plots against time drawn from
-// core's min/max envelopes, the diagnosis as a table that jumps to the sample, the rows that
+// core's min/max envelopes (painted once per view into a picture, plot_picture.hpp, so a scrub
+// redraws only the cursor), the diagnosis as a table that jumps to the sample, the rows that
 // failed to parse, and the clean export. Every number comes from core: read_track_file,
 // build_track_plot, plot_envelopes, diagnose_track, export_clean_track (the same calls as
 // `attiscope track`).
@@ -38,6 +39,7 @@ const char* stage_name(int s) {
     case TrackJobStage::Reading: return "reading";
     case TrackJobStage::Plotting: return "plotting";
     case TrackJobStage::Diagnosing: return "diagnosing";
+    case TrackJobStage::Exporting: return "exporting";
   }
   return "";
 }
@@ -142,6 +144,36 @@ void start_reanalyse(Ui& ui) {
   });
 }
 
+/// An export of the clean copy, streamed to the file (atomically) off the window thread,
+/// with the same progress bar and cancel as a load.
+void start_export(Ui& ui) {
+  TrackPanelState& st = ui.track;
+  if (!st.track || st.job) return;
+  auto job = std::make_unique<TrackJob>();
+  job->exports = true;
+  job->stage.store(static_cast<int>(TrackJobStage::Exporting));
+  job->total.store(st.track->size());
+  std::shared_ptr<const Track> track = st.track;
+  const TrackExportOptions options = st.export_options;
+  const std::string path = st.export_path;
+  st.export_changes.clear();
+  st.export_message = "exporting to " + path;
+  start_job(st, std::move(job), [track, options, path](TrackJob& j) {
+    auto r = export_clean_track(
+        *track, options, path,
+        [&j](std::size_t done, std::size_t total) {
+          j.done.store(done, std::memory_order_relaxed);
+          j.total.store(total, std::memory_order_relaxed);
+        },
+        &j.cancel);
+    if (!r) {
+      j.error = r.error();
+      return;
+    }
+    j.exported = std::move(r.value());
+  });
+}
+
 Rotation sample_rotation(const Track& t, std::size_t i) {
   return Rotation(Eigen::Quaterniond(t.qw[i], t.qx[i], t.qy[i], t.qz[i]));
 }
@@ -191,6 +223,18 @@ void take_finished_job(Ui& ui) {
   if (!st.job || !st.job->finished.load(std::memory_order_acquire)) return;
   std::unique_ptr<TrackJob> job = std::move(st.job);
   job->thread.join();
+  if (job->exports) {
+    if (job->exported) {
+      st.export_changes = std::move(job->exported->changes);
+      st.export_message = "wrote " + job->exported->path + ": " + std::to_string(st.track->size()) +
+                          " samples, " + std::to_string(st.export_changes.size()) + " changes";
+    } else {
+      st.export_changes.clear();
+      st.export_message = job->error ? job->error->describe() : std::string();
+    }
+    if (st.reanalyse_pending) start_reanalyse(ui);
+    return;
+  }
   if (job->error) {
     st.error = job->error->describe();
     st.message = job->cancel.load() ? "cancelled: the track shown (if any) is the one loaded before" : "";
@@ -202,7 +246,10 @@ void take_finished_job(Ui& ui) {
       st.plot = std::move(job->plot);
       ++st.plot_generation;
     }
-    if (job->diagnosis) st.diagnosis = std::move(*job->diagnosis);
+    if (job->diagnosis) {
+      st.diagnosis = std::move(*job->diagnosis);
+      ++st.diagnosis_generation;
+    }
     st.error.clear();
     if (fresh) {
       st.message = "loaded " + std::to_string(st.track->size()) + " samples, " +
@@ -331,9 +378,96 @@ float y_of(float v, float lo, float hi, float top, float bottom) {
   return bottom - (v - lo) / (hi - lo) * (bottom - top);
 }
 
+/// The part of a plot that a scrub leaves alone: background, spans near lock, zero line and
+/// the channels' traces for the view t0..t1 (the envelopes' own), drawn into `dl` for p0..p1
+/// with the vertical range lo..hi.
+void draw_curves(ImDrawList* dl, const TrackPanelState& st, const PlotSpec& spec, const PlotEnvelope* env,
+                 double t0, double t1, ImVec2 p0, ImVec2 p1, float lo, float hi) {
+  const Track& track = *st.track;
+  const TrackPlotData& plot = *st.plot;
+  const double span = t1 - t0;
+  const double width_d = static_cast<double>(p1.x - p0.x);
+  auto x_at = [&](double t) { return p0.x + static_cast<float>((t - t0) / span * width_d); };
+  dl->AddRectFilled(p0, p1, IM_COL32(20, 24, 32, 255));
+  // Spans near lock, shaded across the plot.
+  if (spec.lock_shading) {
+    for (const NearLockSpan& s : st.diagnosis.summary.near_lock_spans) {
+      const double a = track.time_s[s.first], b = track.time_s[std::min(s.last + 1, track.size() - 1)];
+      if (b < t0 || a > t1) continue;
+      dl->AddRectFilled(ImVec2(std::max(p0.x, x_at(a)), p0.y),
+                        ImVec2(std::min(p1.x, std::max(x_at(b), x_at(a) + 1)), p1.y),
+                        IM_COL32(200, 70, 60, 60));
+    }
+  }
+  if (lo < 0.0f && hi > 0.0f) {
+    // One whole pixel row (a 1-pixel anti-aliased line on a half-pixel boundary can drop out).
+    const float yz = std::floor(y_of(0.0f, lo, hi, p0.y, p1.y));
+    dl->AddRectFilled(ImVec2(p0.x, yz), ImVec2(p1.x, yz + 1.0f), IM_COL32(80, 90, 110, 255));
+  }
+  std::vector<ImVec2> thin;  // the current run of thin columns, as points
+  for (std::size_t k = 0; k < spec.channels.size(); ++k) {
+    const PlotEnvelope& e = env[k];
+    const ImU32 col = spec.colours[k % spec.colours.size()];
+    if (e.points) {
+      ImVec2 prev;
+      bool have_prev = false;
+      for (std::size_t i = e.first; i <= e.last && i < track.size(); ++i) {
+        const double v = plot_value(track, plot, spec.channels[k], i);
+        if (!std::isfinite(v)) {
+          have_prev = false;
+          continue;
+        }
+        const ImVec2 p(x_at(track.time_s[i]), y_of(static_cast<float>(v), lo, hi, p0.y, p1.y));
+        if (have_prev) dl->AddLine(prev, p, col, 1.5f);
+        prev = p;
+        have_prev = true;
+      }
+      continue;
+    }
+    // One bar per pixel column from min to max, joined to the neighbour so the trace is whole;
+    // where the bars are thin (a smooth stretch) a simplified line instead, so a calm trace
+    // costs a few segments rather than a quad per pixel (llvmpipe pays per triangle).
+    float prev_lo = NAN, prev_hi = NAN;
+    thin.clear();
+    auto flush = [&] {
+      if (thin.size() >= 2) {
+        simplify_line(&thin);
+        dl->AddPolyline(thin.data(), static_cast<int>(thin.size()), col, ImDrawFlags_None, 1.5f);
+      } else if (thin.size() == 1) {
+        dl->AddRectFilled(ImVec2(thin[0].x - 0.5f, thin[0].y - 0.75f),
+                          ImVec2(thin[0].x + 0.5f, thin[0].y + 0.75f), col);
+      }
+      thin.clear();
+    };
+    for (std::size_t c = 0; c < e.min.size(); ++c) {
+      float a = e.min[c], b = e.max[c];
+      if (!std::isfinite(a) || !std::isfinite(b)) {
+        prev_lo = prev_hi = NAN;
+        flush();
+        continue;
+      }
+      if (std::isfinite(prev_lo)) {
+        a = std::min(a, prev_hi);
+        b = std::max(b, prev_lo);
+      }
+      prev_lo = e.min[c];
+      prev_hi = e.max[c];
+      const float x = p0.x + kColumnPx * static_cast<float>(c);
+      const float ya = y_of(a, lo, hi, p0.y, p1.y), yb = y_of(b, lo, hi, p0.y, p1.y);
+      if (ya - yb <= kThinBarPx) {
+        thin.push_back(ImVec2(x + 0.5f * kColumnPx, y_of(0.5f * (e.min[c] + e.max[c]), lo, hi, p0.y, p1.y)));
+        continue;
+      }
+      flush();
+      dl->AddRectFilled(ImVec2(x, yb), ImVec2(x + kColumnPx, std::max(ya, yb + 1.0f)), col);
+    }
+    flush();
+  }
+}
+
 /// Draws one plot from its channels' envelopes (computed for the view st.view_t0..t1 at one
 /// column per point of the plot's width); wheel and drag change the view for the next frame.
-void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float height,
+void draw_plot(Ui& ui, const PlotSpec& spec, std::size_t slot, const std::string& title, float height,
                const PlotEnvelope* env) {
   TrackPanelState& st = ui.track;
   const Track& track = *st.track;
@@ -405,80 +539,45 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
     lo = lo >= 0.0f ? std::max(0.0f, lo - pad) : lo - pad;  // a rate never goes below zero
     hi += pad;
   }
+  // The curves come from the plot's picture, painted again only when what it shows changes.
+  TrackPlotPicture* pic = slot < st.pictures.size() && !st.pictures_failed ? &st.pictures[slot] : nullptr;
+  // The picture covers the whole pixels the plot touches, so its pixels are the window's
+  // (a plot's edges need not fall on pixel boundaries); the clip rect keeps it to the plot.
+  const ImVec2 scale = io.DisplayFramebufferScale;
+  const ImVec2 box0(std::floor(p0.x * scale.x) / scale.x, std::floor(p0.y * scale.y) / scale.y);
+  const ImVec2 box1(std::ceil(p1.x * scale.x) / scale.x, std::ceil(p1.y * scale.y) / scale.y);
+  if (pic) {
+    TrackPlotPictureKey key;
+    key.plot_generation = st.plot_generation;
+    key.diagnosis_generation = st.diagnosis_generation;
+    key.t0 = t0;
+    key.t1 = t1;
+    key.x0 = p0.x;
+    key.y0 = p0.y;
+    key.x1 = p1.x;
+    key.y1 = p1.y;
+    key.lo = lo;
+    key.hi = hi;
+    key.scale_x = io.DisplayFramebufferScale.x;
+    key.scale_y = io.DisplayFramebufferScale.y;
+    if (!pic->painted || !(pic->key == key)) {
+      ImDrawList content(ImGui::GetDrawListSharedData());
+      PlotPicture::begin_content(&content, *dl, p0, p1);
+      draw_curves(&content, st, spec, env, t0, t1, p0, p1, lo, hi);
+      pic->painted = pic->picture.paint(&content, box0, box1, io.DisplayFramebufferScale);
+      ++st.picture_paints;
+      pic->key = key;
+      if (!pic->painted) {
+        st.pictures_failed = true;
+        pic = nullptr;
+      }
+    }
+  }
   dl->PushClipRect(p0, p1, true);
-  dl->AddRectFilled(p0, p1, IM_COL32(20, 24, 32, 255));
-  // Spans near lock, shaded across the plot.
-  if (spec.lock_shading) {
-    for (const NearLockSpan& s : st.diagnosis.summary.near_lock_spans) {
-      const double a = track.time_s[s.first], b = track.time_s[std::min(s.last + 1, track.size() - 1)];
-      if (b < t0 || a > t1) continue;
-      dl->AddRectFilled(ImVec2(std::max(p0.x, x_at(a)), p0.y),
-                        ImVec2(std::min(p1.x, std::max(x_at(b), x_at(a) + 1)), p1.y),
-                        IM_COL32(200, 70, 60, 60));
-    }
-  }
-  if (lo < 0.0f && hi > 0.0f) {
-    const float yz = y_of(0.0f, lo, hi, p0.y, p1.y);
-    dl->AddLine(ImVec2(p0.x, yz), ImVec2(p1.x, yz), IM_COL32(80, 90, 110, 255));
-  }
-  std::vector<ImVec2> thin;  // the current run of thin columns, as points
-  for (std::size_t k = 0; k < spec.channels.size(); ++k) {
-    const PlotEnvelope& e = env[k];
-    const ImU32 col = spec.colours[k % spec.colours.size()];
-    if (e.points) {
-      ImVec2 prev;
-      bool have_prev = false;
-      for (std::size_t i = e.first; i <= e.last && i < track.size(); ++i) {
-        const double v = plot_value(track, plot, spec.channels[k], i);
-        if (!std::isfinite(v)) {
-          have_prev = false;
-          continue;
-        }
-        const ImVec2 p(x_at(track.time_s[i]), y_of(static_cast<float>(v), lo, hi, p0.y, p1.y));
-        if (have_prev) dl->AddLine(prev, p, col, 1.5f);
-        prev = p;
-        have_prev = true;
-      }
-      continue;
-    }
-    // One bar per pixel column from min to max, joined to the neighbour so the trace is whole;
-    // where the bars are thin (a smooth stretch) a simplified line instead, so a calm trace
-    // costs a few segments rather than a quad per pixel (llvmpipe pays per triangle).
-    float prev_lo = NAN, prev_hi = NAN;
-    thin.clear();
-    auto flush = [&] {
-      if (thin.size() >= 2) {
-        simplify_line(&thin);
-        dl->AddPolyline(thin.data(), static_cast<int>(thin.size()), col, ImDrawFlags_None, 1.5f);
-      } else if (thin.size() == 1) {
-        dl->AddRectFilled(ImVec2(thin[0].x - 0.5f, thin[0].y - 0.75f),
-                          ImVec2(thin[0].x + 0.5f, thin[0].y + 0.75f), col);
-      }
-      thin.clear();
-    };
-    for (std::size_t c = 0; c < e.min.size(); ++c) {
-      float a = e.min[c], b = e.max[c];
-      if (!std::isfinite(a) || !std::isfinite(b)) {
-        prev_lo = prev_hi = NAN;
-        flush();
-        continue;
-      }
-      if (std::isfinite(prev_lo)) {
-        a = std::min(a, prev_hi);
-        b = std::max(b, prev_lo);
-      }
-      prev_lo = e.min[c];
-      prev_hi = e.max[c];
-      const float x = p0.x + kColumnPx * static_cast<float>(c);
-      const float ya = y_of(a, lo, hi, p0.y, p1.y), yb = y_of(b, lo, hi, p0.y, p1.y);
-      if (ya - yb <= kThinBarPx) {
-        thin.push_back(ImVec2(x + 0.5f * kColumnPx, y_of(0.5f * (e.min[c] + e.max[c]), lo, hi, p0.y, p1.y)));
-        continue;
-      }
-      flush();
-      dl->AddRectFilled(ImVec2(x, yb), ImVec2(x + kColumnPx, std::max(ya, yb + 1.0f)), col);
-    }
-    flush();
+  if (pic) {
+    pic->picture.show(dl, box0, box1);
+  } else {
+    draw_curves(dl, st, spec, env, t0, t1, p0, p1, lo, hi);
   }
   // The current sample.
   if (st.sample < track.size()) {
@@ -508,6 +607,14 @@ void draw_plot(Ui& ui, const PlotSpec& spec, const std::string& title, float hei
       tip += "\n" + std::string(spec.names[k]) + "  " + num(plot_value(track, plot, spec.channels[k], i), 7);
     ImGui::SetTooltip("%s", tip.c_str());
   }
+}
+
+/// The plot's place in TrackPanelState::pictures (its kind, as in show_plot).
+std::size_t picture_slot(const PlotSpec& spec) {
+  static const char* const kKeys[] = {"quaternion", "euler", "lock_margin", "rate"};
+  for (std::size_t k = 0; k < 4; ++k)
+    if (std::string(spec.key) == kKeys[k]) return k;
+  return 4;
 }
 
 void draw_plots(Ui& ui) {
@@ -583,7 +690,7 @@ void draw_plots(Ui& ui) {
     const PlotSpec& s = specs[k];
     std::string title = s.title;
     if (std::string(s.key) == "euler") title = "Euler " + c.name() + " (deg, " + unit_note + ")";
-    draw_plot(ui, s, title, h, cache.envelopes.data() + first_channel[k]);
+    draw_plot(ui, s, picture_slot(s), title, h, cache.envelopes.data() + first_channel[k]);
   }
   ImGui::TextDisabled("view %s .. %s s; wheel zooms, drag pans, click jumps; red: near lock",
                       num(st.view_t0, 7).c_str(), num(st.view_t1, 7).c_str());
@@ -851,17 +958,10 @@ void draw_export(Ui& ui) {
   text_field("##export_path", st.export_path, kPathCapacity, false);
   record_widget(ui, "track.export_path");
   ImGui::SameLine();
-  if (ImGui::Button("Export")) {
-    auto r = export_clean_track(*st.track, o, st.export_path);
-    if (r) {
-      st.export_changes = r.value().changes;
-      st.export_message = "wrote " + st.export_path + ": " + std::to_string(st.track->size()) + " samples, " +
-                          std::to_string(st.export_changes.size()) + " changes";
-    } else {
-      st.export_changes.clear();
-      st.export_message = r.error().describe();
-    }
-  }
+  const bool busy = st.job != nullptr;  // one job at a time: a load, a re-analysis or an export
+  if (busy) ImGui::BeginDisabled();
+  if (ImGui::Button("Export")) start_export(ui);
+  if (busy) ImGui::EndDisabled();
   record_widget(ui, "track.export");
   ImGui::TextWrapped(
       "Clean copy: normalised, sign-continuous%s; times and samples unchanged.",
@@ -955,7 +1055,9 @@ void draw_open_row(Ui& ui) {
     const std::size_t total = st.job->total.load(std::memory_order_relaxed);
     const std::size_t done = st.job->done.load(std::memory_order_relaxed);
     const int stage = st.job->stage.load();
-    const float frac = stage > 0 ? 1.0f : total ? static_cast<float>(done) / static_cast<float>(total) : 0.0f;
+    const bool counted = stage == static_cast<int>(TrackJobStage::Reading) ||
+                         stage == static_cast<int>(TrackJobStage::Exporting);
+    const float frac = !counted ? 1.0f : total ? static_cast<float>(done) / static_cast<float>(total) : 0.0f;
     const std::string what =
         std::string(stage_name(stage)) + " " + num(100.0 * static_cast<double>(frac), 3) + "%";
     ImGui::ProgressBar(frac,
@@ -1068,6 +1170,10 @@ void step_track(Ui& ui, long delta) {
 
 void shutdown_track(Ui& ui) {
   ui.track.job.reset();
+  for (TrackPlotPicture& p : ui.track.pictures) {
+    p.picture.release();
+    p.painted = false;
+  }
 }
 
 void draw_track_panel(Ui& ui) {
@@ -1141,6 +1247,15 @@ nlohmann::json track_dump(const Ui& ui) {
       j["sample_quaternion"] = {t.qw[st.sample], t.qx[st.sample], t.qy[st.sample], t.qz[st.sample]};
     }
   }
+  // Where each shown plot is (x0, y0, x1, y1 in points) and how often a picture was painted.
+  nlohmann::json plots = nlohmann::json::object();
+  for (const auto& [name, r] : ui.widgets) {
+    const std::string prefix = "track.plot.";
+    if (name.compare(0, prefix.size(), prefix) == 0) plots[name.substr(prefix.size())] = {r.x, r.y, r.z, r.w};
+  }
+  j["plots"] = plots;
+  j["picture_paints"] = st.picture_paints;
+  j["pictures"] = !st.pictures_failed;
   j["export_message"] = st.export_message;
   j["export_changes"] = st.export_changes.size();
   return j;

@@ -8,6 +8,7 @@
 // `finished` each frame and only then reads the results; it never blocks on the job.
 #pragma once
 
+#include <array>
 #include <atomic>
 #include <cstddef>
 #include <memory>
@@ -22,11 +23,13 @@
 #include "attiscope/core/track_analysis.hpp"
 #include "attiscope/core/track_clean.hpp"
 #include "attiscope/core/track_plot.hpp"
+#include "attiscope/core/track_report.hpp"
+#include "gui/plot_picture.hpp"
 
 namespace attiscope::gui {
 
 /// What a background job is doing (shown beside the progress bar).
-enum class TrackJobStage : int { Reading = 0, Plotting = 1, Diagnosing = 2 };
+enum class TrackJobStage : int { Reading = 0, Plotting = 1, Diagnosing = 2, Exporting = 3 };
 
 struct TrackJob {
   // Shared with the thread.
@@ -36,7 +39,9 @@ struct TrackJob {
   std::atomic<std::size_t> done{0};
   std::atomic<std::size_t> total{0};
   // Written by the thread before `finished`, read by the window thread after it.
-  bool reads_file = false;  ///< a load (else a re-analysis of the current track)
+  bool reads_file = false;  ///< a load (else a re-analysis of the current track, or an export)
+  bool exports = false;     ///< an export of the clean copy (export_clean_track)
+  std::optional<TrackExportSummary> exported;
   std::optional<Error> error;
   std::shared_ptr<const Track> track;
   std::unique_ptr<TrackPlotData> plot;  ///< null when the plot data did not change
@@ -59,6 +64,29 @@ struct TrackPlotCache {
   std::vector<PlotEnvelope> envelopes;  ///< one per channel, in `channels` order
 };
 
+/// What a plot's picture shows: it is painted again only when one of these changes (data,
+/// diagnosis, view, place, size, vertical range or pixel scale), never for a scrub.
+struct TrackPlotPictureKey {
+  std::size_t plot_generation = 0, diagnosis_generation = 0;
+  double t0 = 0.0, t1 = 0.0;
+  float x0 = 0.0f, y0 = 0.0f, x1 = 0.0f, y1 = 0.0f;
+  float lo = 0.0f, hi = 0.0f;
+  float scale_x = 0.0f, scale_y = 0.0f;
+  bool operator==(const TrackPlotPictureKey& o) const {
+    return plot_generation == o.plot_generation && diagnosis_generation == o.diagnosis_generation &&
+           t0 == o.t0 && t1 == o.t1 && x0 == o.x0 && y0 == o.y0 && x1 == o.x1 && y1 == o.y1 && lo == o.lo &&
+           hi == o.hi && scale_x == o.scale_x && scale_y == o.scale_y;
+  }
+};
+
+/// One plot's curves as a picture (background, spans near lock, zero line, traces); the
+/// cursor, labels and hover read-out are drawn live on top of it.
+struct TrackPlotPicture {
+  PlotPicture picture;
+  TrackPlotPictureKey key;
+  bool painted = false;
+};
+
 /// The Track panel's inner tabs.
 enum class TrackTab { Plots, Events, Columns, BadRows, Export };
 
@@ -74,6 +102,11 @@ struct TrackPanelState {
   std::size_t plot_generation = 1;  ///< counts replacements of `plot`
   TrackPlotCache plot_cache;
   TrackDiagnosis diagnosis;
+  std::size_t diagnosis_generation = 1;  ///< counts replacements of `diagnosis`
+  /// The plots' pictures, one per kind of plot (quaternion, Euler, lock margin, rate).
+  std::array<TrackPlotPicture, 4> pictures;
+  bool pictures_failed = false;    ///< GL could not make a picture: the plots draw straight
+  std::size_t picture_paints = 0;  ///< pictures painted so far (a scrub paints none)
   std::unique_ptr<TrackJob> job;
   bool reanalyse_pending = false;  ///< a change came while a job ran: re-analyse after it
 

@@ -9,7 +9,9 @@
 #include <cstdio>
 #include <cstring>
 #include <fstream>
+#include <ostream>
 #include <sstream>
+#include <streambuf>
 #include <vector>
 
 namespace attiscope {
@@ -20,10 +22,62 @@ std::string errno_text() {
   return std::strerror(errno);
 }
 
+/// A stream buffer onto a file descriptor (the temporary file): 64 KiB at a time, and
+/// remembers the first failed write (its errno) instead of losing it.
+class FdBuffer : public std::streambuf {
+ public:
+  explicit FdBuffer(int fd) : fd_(fd), buf_(kBufferBytes) { setp(buf_.data(), buf_.data() + buf_.size()); }
+  int failed_errno() const { return errno_; }
+
+ protected:
+  int_type overflow(int_type ch) override {
+    if (!drain()) return traits_type::eof();
+    if (!traits_type::eq_int_type(ch, traits_type::eof())) {
+      *pptr() = traits_type::to_char_type(ch);
+      pbump(1);
+    }
+    return traits_type::not_eof(ch);
+  }
+  int sync() override { return drain() ? 0 : -1; }
+
+ private:
+  static constexpr std::size_t kBufferBytes = 1u << 16;
+  bool drain() {
+    if (errno_ != 0) return false;
+    const char* p = pbase();
+    const char* const end = pptr();
+    while (p < end) {
+      const ssize_t n = ::write(fd_, p, static_cast<std::size_t>(end - p));
+      if (n < 0) {
+        if (errno == EINTR) continue;
+        errno_ = errno != 0 ? errno : EIO;
+        return false;
+      }
+      p += n;
+    }
+    setp(buf_.data(), buf_.data() + buf_.size());
+    return true;
+  }
+  int fd_;
+  std::vector<char> buf_;
+  int errno_ = 0;
+};
+
 }  // namespace
 
 Expected<bool> write_file_atomically(const std::string& path, std::string_view content,
                                      const BeforeRenameHook& before_rename) {
+  return write_file_atomically_streamed(
+      path,
+      [content](std::ostream& out) -> Expected<bool> {
+        out.write(content.data(), static_cast<std::streamsize>(content.size()));
+        return true;
+      },
+      before_rename);
+}
+
+Expected<bool> write_file_atomically_streamed(const std::string& path, const StreamFiller& fill,
+                                              const BeforeRenameHook& before_rename) {
   const std::size_t slash = path.find_last_of('/');
   const std::string folder = slash == std::string::npos ? "." : path.substr(0, slash == 0 ? 1 : slash);
   const std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
@@ -42,14 +96,24 @@ Expected<bool> write_file_atomically(const std::string& path, std::string_view c
     std::remove(temp.c_str());
     return Error{"cannot save " + path + ": " + what + " (" + reason + "); the old file is unchanged"};
   };
-  std::size_t written = 0;
-  while (written < content.size()) {
-    const ssize_t n = ::write(fd, content.data() + written, content.size() - written);
-    if (n < 0) {
-      if (errno == EINTR) continue;
+  {
+    FdBuffer buffer(fd);
+    std::ostream out(&buffer);
+    Expected<bool> filled = fill(out);
+    out.flush();
+    if (buffer.failed_errno() != 0) {  // the disk's reason first (fill only saw a failed stream)
+      errno = buffer.failed_errno();
       return fail("writing the temporary file failed");
     }
-    written += static_cast<std::size_t>(n);
+    if (!filled) {
+      ::close(fd);
+      std::remove(temp.c_str());
+      return filled.error();
+    }
+    if (!out) {
+      errno = EIO;
+      return fail("writing the temporary file failed");
+    }
   }
   // Keep the old file's permissions; a new file gets the usual 0644 (mkstemp makes 0600).
   struct stat old_stat {};

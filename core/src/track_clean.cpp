@@ -173,7 +173,7 @@ std::string track_csv_header(const TrackExportOptions& o) {
 }
 
 Expected<std::size_t> write_track_csv(std::ostream& out, const Track& track, const TrackExportOptions& o,
-                                      std::vector<CleanChange>* changes) {
+                                      std::vector<CleanChange>* changes, const CsvRowsWritten& rows_written) {
   const std::size_t n = track.size();
   std::vector<double> ea, eb, ec;
   if (o.representation == ExportRepresentation::Euler) {
@@ -238,11 +238,14 @@ Expected<std::size_t> write_track_csv(std::ostream& out, const Track& track, con
     if (buf.size() > (1u << 16)) {
       out.write(buf.data(), static_cast<std::streamsize>(buf.size()));
       buf.clear();
+      if (!out) return Error{"writing the CSV failed"};
+      if (rows_written && !rows_written(i + 1)) return Error{"writing the CSV was stopped"};
     }
   }
   out.write(buf.data(), static_cast<std::streamsize>(buf.size()));
   out.flush();
   if (!out) return Error{"writing the CSV failed"};
+  if (rows_written) rows_written(n);
   return n;
 }
 

@@ -62,16 +62,27 @@ nlohmann::json change_json(const CleanChange& c) {
 }  // namespace
 
 Expected<TrackExportSummary> export_clean_track(const Track& track, const TrackExportOptions& options,
-                                                const std::string& path) {
+                                                const std::string& path, const ExportProgress& progress,
+                                                const std::atomic<bool>* cancel) {
+  auto cancelled = [cancel] { return cancel != nullptr && cancel->load(std::memory_order_relaxed); };
+  const Error cancelled_error{"the export to '" + path +
+                              "' was cancelled; the old file (if any) is unchanged"};
   CleanTrack clean = clean_track(track);
+  if (cancelled()) return cancelled_error;
   TrackExportSummary summary;
   summary.path = path;
   summary.options = options;
   summary.changes = std::move(clean.changes);
-  std::ostringstream text;
-  auto written = write_track_csv(text, clean.track, options, &summary.changes);
-  if (!written) return written.error();
-  auto saved = write_file_atomically(path, text.str());
+  const std::size_t total = clean.track.size();
+  auto saved = write_file_atomically_streamed(path, [&](std::ostream& out) -> Expected<bool> {
+    auto written = write_track_csv(out, clean.track, options, &summary.changes, [&](std::size_t rows) {
+      if (progress) progress(rows, total);
+      return !cancelled();
+    });
+    if (!written) return written.error();
+    return true;
+  });
+  if (!saved && cancelled()) return cancelled_error;
   if (!saved) return Error{"cannot write '" + path + "': " + saved.error().message};
   return summary;
 }

@@ -5,6 +5,7 @@
 // dumped state is checked against the generated motion (where each fault was injected) and
 // against `attiscope track --json` and `--export` on the same file (the same core calls).
 #include <gtest/gtest.h>
+#include <stb_image.h>
 
 #include <cmath>
 #include <cstdio>
@@ -203,13 +204,84 @@ TEST_F(TrackPanelTest, WheelZoomsAndDragPansThePlots) {
                                std::filesystem::copy_options::overwrite_existing);
 }
 
+/// The columns (window x, whole pixels) inside `rect` (x0, y0, x1, y1) where two screenshots
+/// of the same size differ; empty when either cannot be read.
+std::vector<int> DifferingColumns(const std::string& a_png, const std::string& b_png,
+                                  const nlohmann::json& rect) {
+  int wa = 0, ha = 0, wb = 0, hb = 0, n = 0;
+  unsigned char* a = stbi_load(a_png.c_str(), &wa, &ha, &n, 3);
+  unsigned char* b = stbi_load(b_png.c_str(), &wb, &hb, &n, 3);
+  std::vector<int> out;
+  if (a && b && wa == wb && ha == hb) {
+    const int x0 = std::max(0, static_cast<int>(rect[0].get<double>()));
+    const int y0 = std::max(0, static_cast<int>(rect[1].get<double>()));
+    const int x1 = std::min(wa, static_cast<int>(rect[2].get<double>()));
+    const int y1 = std::min(ha, static_cast<int>(rect[3].get<double>()));
+    for (int x = x0; x < x1; ++x) {
+      for (int y = y0; y < y1; ++y) {
+        const std::size_t i =
+            3 * (static_cast<std::size_t>(y) * static_cast<std::size_t>(wa) + static_cast<std::size_t>(x));
+        if (a[i] != b[i] || a[i + 1] != b[i + 1] || a[i + 2] != b[i + 2]) {
+          out.push_back(x);
+          break;
+        }
+      }
+    }
+  }
+  if (a) stbi_image_free(a);
+  if (b) stbi_image_free(b);
+  return out;
+}
+
+TEST_F(TrackPanelTest, ScrubMovesOnlyTheCursorAndZoomRedrawsTheCurves) {
+  // The plotted curves are a picture painted once per view: stepping the timeline must
+  // change a plot only where the cursor was and is now, paint no picture, and a zoom must
+  // paint the curves anew (no stale picture).
+  const Track t = Generated();
+  const std::string log = WriteLog(t, "rover.csv");
+  std::string steps;
+  for (int k = 0; k < 20; ++k) steps += "key period\nframes 1\n";
+  ASSERT_EQ(run("frames 2\nwait\nframes 2\ndump " + path("0.json") + "\nscreenshot " + path("0.png") + "\n" +
+                    steps + "frames 1\ndump " + path("1.json") + "\nscreenshot " + path("1.png") +
+                    "\nscroll track.plot.euler 3\nframes 2\ndump " + path("2.json") + "\nscreenshot " +
+                    path("2.png") + "\n",
+                "", {log}),
+            0)
+      << err_;
+  const auto d0 = dump("0.json")["track"], d1 = dump("1.json")["track"], d2 = dump("2.json")["track"];
+  ASSERT_TRUE(d0["pictures"].get<bool>()) << "the plots fell back to drawing straight";
+  ASSERT_TRUE(d0["plots"].contains("euler")) << d0["plots"].dump();
+  EXPECT_EQ(d1["sample"].get<std::size_t>(), d0["sample"].get<std::size_t>() + 20);
+  EXPECT_GT(d0["picture_paints"].get<std::size_t>(), 0u);
+  EXPECT_EQ(d1["picture_paints"], d0["picture_paints"]) << "a scrub painted a plot picture";
+  EXPECT_GT(d2["picture_paints"].get<std::size_t>(), d1["picture_paints"].get<std::size_t>())
+      << "a zoom did not paint the curves anew";
+  // Where the cursor is drawn: the sample's time in the view, across the plot's width.
+  const auto rect = d0["plots"]["euler"];
+  const double x0 = rect[0].get<double>(), w = rect[2].get<double>() - x0;
+  const double v0 = d0["view"][0].get<double>(), v1 = d0["view"][1].get<double>();
+  auto cursor_x = [&](const nlohmann::json& d) {
+    return x0 + (d["time_s"].get<double>() - v0) / (v1 - v0) * w;
+  };
+  const double xa = cursor_x(d0), xb = cursor_x(d1);
+  ASSERT_GT(std::abs(xb - xa), 8.0) << "the step should move the cursor visibly";
+  const std::vector<int> scrubbed = DifferingColumns(path("0.png"), path("1.png"), rect);
+  EXPECT_FALSE(scrubbed.empty()) << "the cursor did not move on the plot";
+  for (int x : scrubbed)
+    EXPECT_TRUE(std::abs(x - xa) <= 2.0 || std::abs(x - xb) <= 2.0)
+        << "column " << x << " changed; the cursor went from " << xa << " to " << xb;
+  // Three notches in: the Euler curves are drawn anew across most of the plot.
+  const std::vector<int> zoomed = DifferingColumns(path("1.png"), path("2.png"), rect);
+  EXPECT_GT(static_cast<double>(zoomed.size()), 0.5 * w) << "the zoomed plot looks like the old one";
+}
+
 TEST_F(TrackPanelTest, ExportWritesTheCommandLinesCleanCopy) {
   const Track t = Generated();
   const std::string log = WriteLog(t, "rover.csv");
   const std::string gui_out = path("gui.csv"), cli_out = path("cli.csv");
   ASSERT_EQ(run("frames 2\nwait\nframes 2\nclick track.tab.export\nframes 2\nclick track.export_path\nkey "
                 "ctrl+a\ntype " +
-                    gui_out + "\nframes 1\nclick track.export\nframes 2\ndump " + path("0.json") + "\n",
+                    gui_out + "\nframes 1\nclick track.export\nwait\nframes 2\ndump " + path("0.json") + "\n",
                 "", {log}),
             0)
       << err_;

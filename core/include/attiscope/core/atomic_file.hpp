@@ -6,6 +6,7 @@
 #pragma once
 
 #include <functional>
+#include <ostream>
 #include <string>
 #include <string_view>
 
@@ -22,6 +23,17 @@ using BeforeRenameHook = std::function<bool(const std::string& temp_path)>;
 /// failed rename) leave the old file untouched and remove the temporary file.
 Expected<bool> write_file_atomically(const std::string& path, std::string_view content,
                                      const BeforeRenameHook& before_rename = {});
+
+/// Streams a file's content into `out` (the temporary file, buffered). An error abandons
+/// the save.
+using StreamFiller = std::function<Expected<bool>(std::ostream& out)>;
+
+/// Writes what `fill` streams to `path` atomically without holding the content in memory:
+/// the same temporary file, flush and rename as write_file_atomically (which calls this).
+/// An error from `fill` is returned as it is; it, a failed write or a failed rename leaves
+/// the old file untouched and removes the temporary file.
+Expected<bool> write_file_atomically_streamed(const std::string& path, const StreamFiller& fill,
+                                              const BeforeRenameHook& before_rename = {});
 
 /// Reads a whole file. Error when it cannot be opened.
 Expected<std::string> read_whole_file(const std::string& path);

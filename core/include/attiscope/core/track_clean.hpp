@@ -11,6 +11,7 @@
 #pragma once
 
 #include <cstddef>
+#include <functional>
 #include <ostream>
 #include <string>
 #include <vector>
@@ -76,11 +77,17 @@ struct TrackExportOptions {
 /// columns follow the layout; a world-to-body or JPL export says so in the column names.
 std::string track_csv_header(const TrackExportOptions& options);
 
-/// Writes the header and one row per sample of `track` (use a clean copy). Quaternions keep
-/// a continuous sign in the chosen convention. Euler unwrap changes are appended to
-/// `changes` when it is given. Error when the stream fails.
+/// Called each time a block of rows has gone to the stream, with the rows written so far;
+/// returning false stops the writing.
+using CsvRowsWritten = std::function<bool(std::size_t rows)>;
+
+/// Writes the header and one row per sample of `track` (use a clean copy), in blocks of
+/// about 64 KiB. Quaternions keep a continuous sign in the chosen convention. Euler unwrap
+/// changes are appended to `changes` when it is given. Error when the stream fails or
+/// `rows_written` stops it.
 Expected<std::size_t> write_track_csv(std::ostream& out, const Track& track,
                                       const TrackExportOptions& options,
-                                      std::vector<CleanChange>* changes = nullptr);
+                                      std::vector<CleanChange>* changes = nullptr,
+                                      const CsvRowsWritten& rows_written = {});
 
 }  // namespace attiscope

@@ -8,6 +8,9 @@
 // "clean" when a clean copy was exported. Angles in degrees; numbers round-trip (17 digits).
 #pragma once
 
+#include <atomic>
+#include <functional>
+
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
@@ -27,12 +30,18 @@ struct TrackExportSummary {
   std::vector<CleanChange> changes;  ///< clean_track's, then the Euler unwrap's
 };
 
+/// Rows written so far and the track's rows, while an export runs.
+using ExportProgress = std::function<void(std::size_t done, std::size_t total)>;
+
 /// Exports the clean copy of a track (clean_track) as CSV (write_track_csv) to `path`,
-/// written atomically (atomic_file.hpp: a failure leaves an old file whole). The command
-/// line's --export and the Track panel's Export both call this. Error: the file cannot be
-/// written (the message names it).
+/// streamed to a temporary file beside it and renamed at the end (atomic_file.hpp: a
+/// failure or a cancel leaves an old file whole; the CSV is never held in memory). The
+/// command line's --export and the Track panel's Export both call this. `progress` is
+/// called every block of rows; setting `cancel` stops the export. Error: the file cannot be
+/// written (the message names it), or the export was cancelled.
 Expected<TrackExportSummary> export_clean_track(const Track& track, const TrackExportOptions& options,
-                                                const std::string& path);
+                                                const std::string& path, const ExportProgress& progress = {},
+                                                const std::atomic<bool>* cancel = nullptr);
 
 /// One event as JSON: {"sample", "kind", "count", "time_s"} and a kind-specific detail
 /// ("dot", "angle" and "step_deg", "norm", "dt_s", "peak_rate_deg_s").
