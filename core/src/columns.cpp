@@ -896,6 +896,25 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
 
 namespace {
 
+// The quaternion of one row's Euler angles (values 1..3, application order, the mapping's
+// unit) through from_euler (euler.hpp). Out of line so that push_row's quaternion path stays
+// as small as before in the row loop.
+[[gnu::noinline]] bool euler_row(const ColumnMapping& m, const double* values, double* w, double* x,
+                                 double* y, double* z, std::string* reason) {
+  const double scale = m.euler_unit == AngleUnit::Degrees ? kRadPerDeg : 1.0;
+  const Eigen::Vector3d a(values[1] * scale, values[2] * scale, values[3] * scale);
+  if (!a.allFinite()) {
+    *reason = "an Euler angle is NaN or infinite";
+    return false;
+  }
+  const Eigen::Quaterniond q = from_euler(m.euler, a).stored_quaternion();
+  *w = q.w();
+  *x = q.x();
+  *y = q.y();
+  *z = q.z();
+  return true;
+}
+
 // Appends the sample of one row whose numbers are in values (slot 0 the time, 1.. the
 // rotation numbers in storage order) to the track; false and the reason when the row is not
 // a rotation (a NaN, a zero quaternion, a matrix that is not a rotation, a non-finite angle).
@@ -918,17 +937,7 @@ inline bool push_row(const ColumnMapping& m, bool quat, const double* values, Tr
       return false;
     }
   } else if (m.form == TrackForm::Euler) {
-    const double scale = m.euler_unit == AngleUnit::Degrees ? kRadPerDeg : 1.0;
-    const Eigen::Vector3d a(values[1] * scale, values[2] * scale, values[3] * scale);
-    if (!a.allFinite()) {
-      *reason = "an Euler angle is NaN or infinite";
-      return false;
-    }
-    const Eigen::Quaterniond q = from_euler(m.euler, a).stored_quaternion();
-    w = q.w();
-    x = q.x();
-    y = q.y();
-    z = q.z();
+    if (!euler_row(m, values, &w, &x, &y, &z, reason)) return false;
   } else {
     std::array<double, 9> n{};
     for (int k = 0; k < 9; ++k) n[static_cast<std::size_t>(k)] = values[k + 1];
