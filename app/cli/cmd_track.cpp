@@ -4,6 +4,7 @@
 #include <iostream>
 
 #include "attiscope/core/columns.hpp"
+#include "attiscope/core/convention.hpp"
 #include "attiscope/core/track_analysis.hpp"
 #include "attiscope/core/track_clean.hpp"
 #include "attiscope/core/track_report.hpp"
@@ -23,7 +24,16 @@ const char* kTrackHelp =
     "rotation), wrap (an Euler angle crossed +/-180), near_lock (an Euler angle jumped while\n"
     "the middle angle was close to lock), non_unit, time_backwards, time_repeat, fast_motion\n"
     "(angular rate beyond --rate-limit). Rows that cannot be read are counted and listed with\n"
-    "their line numbers; the rest loads.\n"
+    "their line numbers; the rest loads. A log of Euler angles (columns named roll, pitch, yaw;\n"
+    "phi, theta, psi; heading, pitch, bank; or as the --convention file names its angles, with\n"
+    "an optional unit suffix such as _deg or (rad)) is read as intrinsic ZYX (common names) or\n"
+    "the house convention.\n"
+    "\n"
+    "Reading options:\n"
+    "  --as READING             quat-wxyz, quat-xyzw, matrix-rows, matrix-cols or euler\n"
+    "  --as euler --euler SEQ [--intrinsic|--extrinsic] [--deg|--rad]\n"
+    "                           read the angle columns in this convention and unit; between\n"
+    "                           Tait-Bryan sequences each column keeps its axis\n"
     "\n"
     "Diagnosis options:\n"
     "  --euler SEQ, --intrinsic, --extrinsic   convention of the wrap and lock checks (ZYX)\n"
@@ -120,13 +130,24 @@ std::optional<std::string> export_options(const CommonOptions& o, TrackExportOpt
 }
 
 // Reads a pose log into a Track with the intake's column finding and reader; --as forces
-// the reading of the rotation columns. `notes` receives how the columns were chosen.
-Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::vector<std::string>* notes) {
+// the reading of the rotation columns (for Euler angles with --euler, --intrinsic,
+// --extrinsic, --deg and --rad); a --convention file's Euler names, convention and unit are
+// the house choices. `notes` receives how the columns were chosen, `used` the mapping read.
+Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::vector<std::string>* notes,
+                         ColumnMapping* used) {
   auto head = read_file_head(path);
   if (!head) return head.error();
   ColumnPreferences prefs;
+  if (o.convention) {
+    prefs.euler = o.convention->euler.convention;
+    prefs.euler_unit = o.convention->euler.unit;
+    prefs.euler_names = o.convention->euler.names;
+    prefs.quat_layout = o.convention->quaternion.layout;
+    prefs.matrix_storage = o.convention->matrix.storage;
+  }
   if (o.as == ReadingKind::QuatXyzw) prefs.quat_layout = QuatLayout::ScalarLast;
   if (o.as == ReadingKind::MatrixCols) prefs.matrix_storage = MatrixStorage::Columns;
+  if (o.as == ReadingKind::Euler && o.unit_given) prefs.euler_unit = o.unit;
   auto found = find_columns(head.value(), prefs);
   if (!found) return found.error();
   ColumnMapping mapping = found.value();
@@ -137,21 +158,49 @@ Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::v
       case ReadingKind::QuatXyzw: forced = TrackForm::QuatXyzw; break;
       case ReadingKind::MatrixRows: forced = TrackForm::MatrixRows; break;
       case ReadingKind::MatrixCols: forced = TrackForm::MatrixCols; break;
+      case ReadingKind::Euler: forced = TrackForm::Euler; break;
       default: break;
     }
     if (!forced)
       return Error{"--as " + reading_kind_name(*o.as) + " is not a track reading: use " +
-                   "quat-wxyz, quat-xyzw, matrix-rows or matrix-cols"};
+                   "quat-wxyz, quat-xyzw, matrix-rows, matrix-cols or euler"};
     // --as went into find_columns as the house choice, which decides when the header and the
     // numbers do not. When they do decide, the columns are read as they say (the reader
     // already put them in the form's order), and the note says --as was not needed.
-    const bool forced_quat = *forced == TrackForm::QuatWxyz || *forced == TrackForm::QuatXyzw;
-    const bool found_quat = mapping.form == TrackForm::QuatWxyz || mapping.form == TrackForm::QuatXyzw;
-    if (forced_quat != found_quat) {
+    const std::size_t forced_n = track_form_numbers(*forced), found_n = track_form_numbers(mapping.form);
+    if (forced_n != found_n) {
       return Error{"--as " + reading_kind_name(*o.as) + " does not fit this log: its rotation columns are " +
-                   (found_quat ? "four quaternion numbers" : "nine matrix numbers")};
+                   (found_n == 4   ? "four quaternion numbers"
+                    : found_n == 9 ? "nine matrix numbers"
+                                   : "three Euler angles")};
     }
-    if (*forced != mapping.form) {
+    if (*forced == TrackForm::Euler) {
+      // --euler and --deg/--rad say how to read the angle columns. Between two Tait-Bryan
+      // sequences each column keeps its axis (roll stays the angle about x) and the columns
+      // are put in the new application order; otherwise they stay in the order found.
+      if (o.euler_given && o.euler != mapping.euler) {
+        std::string how = "in the order found";
+        if (!o.euler.proper() && !mapping.euler.proper()) {
+          std::array<int, 9> reordered = mapping.rotation_columns;
+          for (std::size_t k = 0; k < 3; ++k) {
+            for (std::size_t j = 0; j < 3; ++j) {
+              if (mapping.euler.axes[j] == o.euler.axes[k]) reordered[k] = mapping.rotation_columns[j];
+            }
+          }
+          mapping.rotation_columns = reordered;
+          how = "each column keeping its axis";
+        }
+        notes->push_back("--as euler --euler: angle columns read as " + o.euler.name() + " instead of " +
+                         mapping.euler.name() + ", " + how);
+        mapping.euler = o.euler;
+      }
+      if (o.unit_given && o.unit != mapping.euler_unit) {
+        notes->push_back(std::string("--as euler: angles read in ") + angle_unit_name(o.unit) +
+                         " instead of " + angle_unit_name(mapping.euler_unit));
+        mapping.euler_unit = o.unit;
+      }
+      assign_column_roles(&mapping);
+    } else if (*forced != mapping.form) {
       notes->push_back("--as " + reading_kind_name(*o.as) + " not applied: the log's columns decide (" +
                        track_form_name(mapping.form) + " after ordering)");
     }
@@ -160,6 +209,7 @@ Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::v
   if (mapping.ambiguous && !o.as) {
     notes->push_back("the columns' reading is ambiguous: check it, or force one with --as");
   }
+  *used = mapping;
   return read_track_file(path, mapping);
 }
 
@@ -201,7 +251,8 @@ int run_track(const std::vector<std::string>& args, Streams io) {
 
   const std::string& path = o.positional[0];
   std::vector<std::string> notes;
-  auto track = read_log(path, o, &notes);
+  ColumnMapping mapping;
+  auto track = read_log(path, o, &notes, &mapping);
   if (!track) {
     io.err << "attiscope track: " << path << ": " << track.error().describe() << "\n";
     return kExitBadInput;
@@ -221,6 +272,11 @@ int run_track(const std::vector<std::string>& args, Streams io) {
   if (o.json) {
     nlohmann::json j = track_json(t, d, diag, exported);
     j["column_notes"] = notes;
+    if (mapping.form == TrackForm::Euler) {
+      j["euler_columns"] = {{"sequence", mapping.euler.sequence()},
+                            {"kind", mapping.euler.kind_name()},
+                            {"unit", angle_unit_name(mapping.euler_unit)}};
+    }
     io.out << j.dump(2) << "\n";
   } else {
     io.out << "track: " << path << "\n" << track_table(t, d, diag, exported);

@@ -837,13 +837,19 @@ void draw_columns(Ui& ui) {
     changed = true;
   }
   record_widget(ui, "track.time_unit");
-  static const char* kForms[] = {"quaternion", "matrix, row-major", "matrix, column-major"};
-  int form = m.form == TrackForm::MatrixRows ? 1 : m.form == TrackForm::MatrixCols ? 2 : 0;
+  static const char* kForms[] = {"quaternion", "matrix, row-major", "matrix, column-major", "Euler angles"};
+  int form = m.form == TrackForm::MatrixRows   ? 1
+             : m.form == TrackForm::MatrixCols ? 2
+             : m.form == TrackForm::Euler      ? 3
+                                               : 0;
   ImGui::SetNextItemWidth(w);
-  if (ImGui::Combo("rotation written as", &form, kForms, 3)) {
-    const bool was_quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
-    m.form = form == 0 ? TrackForm::QuatWxyz : form == 1 ? TrackForm::MatrixRows : TrackForm::MatrixCols;
-    if (was_quat != (form == 0)) {
+  if (ImGui::Combo("rotation written as", &form, kForms, 4)) {
+    const std::size_t was = track_form_numbers(m.form);
+    m.form = form == 0   ? TrackForm::QuatWxyz
+             : form == 1 ? TrackForm::MatrixRows
+             : form == 2 ? TrackForm::MatrixCols
+                         : TrackForm::Euler;
+    if (was != track_form_numbers(m.form)) {
       // A new shape: adjacent columns from the first rotation column.
       const int start = std::max(0, m.rotation_columns[0]);
       for (int k = 0; k < 9; ++k) m.rotation_columns[static_cast<std::size_t>(k)] = start + k;
@@ -872,6 +878,36 @@ void draw_columns(Ui& ui) {
       record_widget(ui, std::string("track.quat_column.") + std::to_string(k));
       if (k % 2 == 0) ImGui::SameLine();
     }
+  } else if (form == 3) {
+    // The convention of the three angle columns (in application order) and their unit.
+    ImGui::SetNextItemWidth(w);
+    if (ImGui::BeginCombo("convention", m.euler.name().c_str())) {
+      for (const EulerConvention& c : all_euler_conventions()) {
+        if (ImGui::Selectable(c.name().c_str(), c == m.euler)) {
+          m.euler = c;
+          changed = true;
+        }
+      }
+      ImGui::EndCombo();
+    }
+    record_widget(ui, "track.euler_convention");
+    ImGui::SameLine();
+    static const char* kAngleUnits[] = {"degrees", "radians"};
+    int angle_unit = m.euler_unit == AngleUnit::Radians ? 1 : 0;
+    ImGui::SetNextItemWidth(90.0f * ui.scale);
+    if (ImGui::Combo("angle unit", &angle_unit, kAngleUnits, 2)) {
+      m.euler_unit = angle_unit == 1 ? AngleUnit::Radians : AngleUnit::Degrees;
+      changed = true;
+    }
+    record_widget(ui, "track.euler_unit");
+    for (int k = 0; k < 3; ++k) {
+      const std::string label = "angle " + std::to_string(k + 1) + " (about " +
+                                axis_letter(m.euler.axes[static_cast<std::size_t>(k)]) + ")";
+      ImGui::SetNextItemWidth(w);
+      changed |= column_combo(label.c_str(), m, &m.rotation_columns[static_cast<std::size_t>(k)], false);
+      record_widget(ui, std::string("track.euler_column.") + std::to_string(k));
+      if (k < 2) ImGui::SameLine();
+    }
   } else {
     int first = m.rotation_columns[0];
     ImGui::SetNextItemWidth(w);
@@ -880,11 +916,9 @@ void draw_columns(Ui& ui) {
       changed = true;
     }
   }
-  ImGui::TextDisabled(
-      "Euler-angle columns are not read as a track yet: convert such a log to quaternions first.");
   if (changed) {
     bool ok = true;
-    const std::size_t used = m.form == TrackForm::QuatWxyz ? 4 : 9;
+    const std::size_t used = track_form_numbers(m.form);
     for (std::size_t k = 0; k < used; ++k)
       if (m.rotation_columns[k] < 0 || static_cast<std::size_t>(m.rotation_columns[k]) >= m.columns.size())
         ok = false;
@@ -1110,6 +1144,9 @@ bool open_track(Ui& ui, const std::string& path) {
   ColumnPreferences prefs;
   prefs.quat_layout = ui.doc.convention().house.quaternion.layout;
   prefs.matrix_storage = ui.doc.convention().house.matrix.storage;
+  prefs.euler = ui.doc.convention().house.euler.convention;
+  prefs.euler_unit = ui.doc.convention().house.euler.unit;
+  prefs.euler_names = ui.doc.convention().house.euler.names;
   auto found = find_columns(head.value(), prefs);
   if (!found) {
     st.error = path + ": " + found.error().describe();

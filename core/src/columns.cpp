@@ -2,6 +2,8 @@
 // std::from_chars straight into the Track's arrays, no per-line allocation).
 #include "attiscope/core/columns.hpp"
 
+#include "attiscope/core/convention.hpp"
+
 #include <fcntl.h>
 #include <sys/mman.h>
 #include <sys/stat.h>
@@ -15,6 +17,7 @@
 #include <cstdio>
 #include <cstring>
 #include <fstream>
+#include <optional>
 #include <thread>
 
 namespace attiscope {
@@ -26,6 +29,8 @@ namespace {
 constexpr double kColumnUnitNorm = 1e-2;
 /// Rows whose 3x3 is this close to orthonormal count when finding matrix columns.
 constexpr double kColumnOrthonormal = 1e-3;
+/// Degrees to radians.
+constexpr double kRadPerDeg = 3.14159265358979323846 / 180.0;
 /// Rows of the sample used for statistics.
 constexpr std::size_t kSampleRows = 200;
 /// Progress and cancel are looked at every this many bytes.
@@ -217,6 +222,47 @@ bool time_name(const std::string& n, std::string* unit) {
   return true;
 }
 
+// An Euler angle column name split into its base name and the unit its suffix names:
+// "roll_deg", "Pitch (deg)", "yaw[rad]", "attitude.heading_rad", "psi" (no unit).
+struct AngleName {
+  std::string base;
+  std::optional<AngleUnit> unit;
+};
+
+std::optional<AngleUnit> angle_unit_word(const std::string& w) {
+  if (w == "deg" || w == "degs" || w == "degree" || w == "degrees" || w == "\xc2\xb0")
+    return AngleUnit::Degrees;
+  if (w == "rad" || w == "rads" || w == "radian" || w == "radians") return AngleUnit::Radians;
+  return std::nullopt;
+}
+
+AngleName angle_name(const std::string& header) {
+  AngleName out;
+  std::string s = lower(trim(header));
+  // A unit in brackets at the end: "pitch (deg)", "yaw[rad]".
+  if (!s.empty() && (s.back() == ')' || s.back() == ']')) {
+    const char open = s.back() == ')' ? '(' : '[';
+    const auto at = s.rfind(open);
+    if (at != std::string::npos) {
+      out.unit = angle_unit_word(trim(s.substr(at + 1, s.size() - at - 2)));
+      if (out.unit) s = trim(s.substr(0, at));
+    }
+  }
+  // A unit after '_', '-' or a space: "roll_deg", "yaw rad".
+  if (!out.unit) {
+    const auto at = s.find_last_of("_- ");
+    if (at != std::string::npos && at > 0) {
+      out.unit = angle_unit_word(s.substr(at + 1));
+      if (out.unit) s = trim(s.substr(0, at));
+    }
+  }
+  // Prefixes: "attitude.roll", "imu/yaw", "euler:pitch".
+  const auto dot = s.find_last_of("./:");
+  if (dot != std::string::npos) s = s.substr(dot + 1);
+  out.base = s;
+  return out;
+}
+
 // Time unit from the magnitude of the values (Unix epoch ranges) or of their steps.
 void time_unit_from_values(const std::vector<double>& t, ColumnMapping* m) {
   const double first = std::abs(t.front());
@@ -270,6 +316,102 @@ bool monotonic(const std::vector<std::vector<double>>& rows, std::size_t c) {
     if (rows[i][c] > rows[i - 1][c]) ++increases;
   }
   return increases * 2 >= rows.size();
+}
+
+/// Any sampled angle beyond this magnitude (a full turn in radians) means the angle columns
+/// are in degrees: radians past a full turn are rare in a log, degrees past 6.28 common.
+constexpr double kDegreesBeyond = 2.0 * 3.14159265358979323846;
+
+// Euler angle columns named in a header: the house convention's own names first, then the
+// common names. Sets the form, columns (application order), convention, unit and notes.
+bool find_euler_columns(const std::vector<std::string>& header, std::size_t nc,
+                        const std::vector<std::vector<double>>& rows, const ColumnPreferences& prefs,
+                        ColumnMapping* m) {
+  std::vector<AngleName> names;
+  for (std::size_t c = 0; c < header.size() && c < nc; ++c) names.push_back(angle_name(header[c]));
+  // The columns of three names (application order), or false when one is missing.
+  auto columns_of = [&](const std::array<std::string, 3>& want, std::array<int, 3>* out) {
+    for (std::size_t k = 0; k < 3; ++k) {
+      (*out)[k] = -1;
+      for (std::size_t c = 0; c < names.size(); ++c) {
+        if (static_cast<int>(c) != m->time_column && names[c].base == want[k]) {
+          (*out)[k] = static_cast<int>(c);
+          break;
+        }
+      }
+      if ((*out)[k] < 0) return false;
+    }
+    return true;
+  };
+  std::array<int, 3> cols{-1, -1, -1};
+  std::string why;
+  bool found = false;
+  const std::array<std::string, 3> house{lower(prefs.euler_names[0]), lower(prefs.euler_names[1]),
+                                         lower(prefs.euler_names[2])};
+  if (!house[0].empty() && !house[1].empty() && !house[2].empty() && columns_of(house, &cols)) {
+    m->euler = prefs.euler;
+    why = "Euler angle columns named as the house convention names its angles (" + prefs.euler_names[0] +
+          ", " + prefs.euler_names[1] + ", " + prefs.euler_names[2] + "): " + prefs.euler.name();
+    found = true;
+  }
+  // The common names, yaw about z first, then pitch about y, then roll about x: intrinsic
+  // ZYX, the usual aerospace reading of roll, pitch and yaw (common practice).
+  static constexpr const char* kCommon[3][3] = {
+      {"yaw", "pitch", "roll"}, {"psi", "theta", "phi"}, {"heading", "pitch", "bank"}};
+  for (const auto& set : kCommon) {
+    if (found) break;
+    if (columns_of({set[0], set[1], set[2]}, &cols)) {
+      m->euler = EulerConvention{{Axis::Z, Axis::Y, Axis::X}, EulerKind::Intrinsic};
+      why = std::string("Euler angle columns named ") + set[2] + ", " + set[1] + ", " + set[0] +
+            " in the header: " + "read as intrinsic ZYX (" + set[0] + " about z, then " + set[1] +
+            " about y, then " + set[2] + " about x), the usual aerospace reading";
+      found = true;
+    }
+  }
+  if (!found) return false;
+  m->form = TrackForm::Euler;
+  for (std::size_t k = 0; k < 3; ++k) m->rotation_columns[k] = cols[k];
+  for (std::size_t k = 3; k < 9; ++k) m->rotation_columns[k] = -1;
+  m->notes.push_back(why);
+  // The unit: from the names' suffixes, else from the numbers, else the house unit.
+  std::optional<AngleUnit> named;
+  bool disagree = false;
+  for (int c : cols) {
+    const auto& u = names[static_cast<std::size_t>(c)].unit;
+    if (!u) continue;
+    if (named && *named != *u) disagree = true;
+    if (!named) named = u;
+  }
+  if (named) {
+    m->euler_unit = *named;
+    m->notes.push_back("angle unit " + angle_unit_name(*named) + " from the header names");
+    if (disagree) {
+      m->ambiguous = true;
+      m->notes.push_back("the header names give the angles different units: all are read in " +
+                         angle_unit_name(*named));
+    }
+    return true;
+  }
+  double largest = 0.0;
+  for (const auto& r : rows) {
+    for (int c : cols) {
+      const double v = std::abs(r[static_cast<std::size_t>(c)]);
+      if (std::isfinite(v)) largest = std::max(largest, v);
+    }
+  }
+  if (largest > kDegreesBeyond) {
+    m->euler_unit = AngleUnit::Degrees;
+    m->notes.push_back("angle unit degrees: sampled angles reach " + std::to_string(largest) +
+                       ", beyond a full turn in radians");
+  } else {
+    m->euler_unit = prefs.euler_unit;
+    m->ambiguous = true;
+    m->notes.push_back(
+        "the angles' unit is not in the header and every sampled angle is within 2 pi: "
+        "degrees or radians cannot be told apart, the house unit (" +
+        angle_unit_name(prefs.euler_unit) + ") decides");
+  }
+  return true;
 }
 
 /// Objects nested deeper than this in a JSON line are refused (a log line is flat or nearly).
@@ -474,8 +616,25 @@ std::string track_form_name(TrackForm f) {
     case TrackForm::QuatXyzw: return "quat-xyzw";
     case TrackForm::MatrixRows: return "matrix-rows";
     case TrackForm::MatrixCols: return "matrix-cols";
+    case TrackForm::Euler: return "euler";
   }
   return "?";
+}
+
+std::size_t track_form_numbers(TrackForm f) {
+  switch (f) {
+    case TrackForm::QuatWxyz:
+    case TrackForm::QuatXyzw: return 4;
+    case TrackForm::MatrixRows:
+    case TrackForm::MatrixCols: return 9;
+    case TrackForm::Euler: return 3;
+  }
+  return 4;
+}
+
+std::string track_reading_text(const ColumnMapping& m) {
+  if (m.form != TrackForm::Euler) return track_form_name(m.form);
+  return "euler " + m.euler.name() + ", " + angle_unit_name(m.euler_unit);
 }
 
 double time_unit_seconds(std::string_view unit) {
@@ -489,12 +648,16 @@ void assign_column_roles(ColumnMapping* m) {
     m->columns[static_cast<std::size_t>(m->time_column)].role = "time (" + m->time_unit + ")";
   static constexpr const char* kQuatRoles[4] = {"quaternion w", "quaternion x", "quaternion y",
                                                 "quaternion z"};
-  const std::size_t used = m->form == TrackForm::QuatWxyz || m->form == TrackForm::QuatXyzw ? 4 : 9;
+  const std::size_t used = track_form_numbers(m->form);
+  const char* unit = m->euler_unit == AngleUnit::Degrees ? "deg" : "rad";
   for (std::size_t k = 0; k < used; ++k) {
     const int col = m->rotation_columns[k];
     if (col < 0 || static_cast<std::size_t>(col) >= m->columns.size()) continue;
     const auto c = static_cast<std::size_t>(col);
-    if (used == 4) {
+    if (used == 3) {
+      m->columns[c].role = "euler " + std::to_string(k + 1) + " of " + m->euler.name() + ", about " +
+                           axis_letter(m->euler.axes[k]) + " (" + unit + ")";
+    } else if (used == 4) {
       m->columns[c].role = kQuatRoles[k];
     } else {
       const std::size_t i = m->form == TrackForm::MatrixRows ? k / 3 : k % 3;
@@ -632,6 +795,7 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
       m.notes.push_back("matrix element columns named in the header (r11..r33: row, column)");
       found = true;
     }
+    if (!found) found = find_euler_columns(header, nc, rows, prefs, &m);
   }
   // 2. Statistics: four adjacent unit-norm columns, or nine orthonormal ones.
   if (!found) {
@@ -696,11 +860,11 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
   }
   if (!found) {
     return Error{
-        "no rotation columns found: no header names them and no four adjacent columns have unit norm "
-        "(nor nine an orthonormal matrix)",
+        "no rotation columns found: no header names them (quaternion, matrix or Euler angle names such as "
+        "roll, pitch, yaw) and no four adjacent columns have unit norm (nor nine an orthonormal matrix)",
         static_cast<int>(m.header_lines + 1), 1};
   }
-  const std::size_t used = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw ? 4 : 9;
+  const std::size_t used = track_form_numbers(m.form);
   auto is_rotation = [&](std::size_t c) {
     for (std::size_t k = 0; k < used; ++k) {
       if (m.rotation_columns[k] == static_cast<int>(c)) return true;
@@ -732,9 +896,29 @@ Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPrefer
 
 namespace {
 
+// The quaternion of one row's Euler angles (values 1..3, application order, the mapping's
+// unit) through from_euler (euler.hpp). Out of line so that push_row's quaternion path stays
+// as small as before in the row loop.
+[[gnu::noinline]] bool euler_row(const ColumnMapping& m, const double* values, double* w, double* x,
+                                 double* y, double* z, std::string* reason) {
+  const double scale = m.euler_unit == AngleUnit::Degrees ? kRadPerDeg : 1.0;
+  const Eigen::Vector3d a(values[1] * scale, values[2] * scale, values[3] * scale);
+  if (!a.allFinite()) {
+    *reason = "an Euler angle is NaN or infinite";
+    return false;
+  }
+  const Eigen::Quaterniond q = from_euler(m.euler, a).stored_quaternion();
+  *w = q.w();
+  *x = q.x();
+  *y = q.y();
+  *z = q.z();
+  return true;
+}
+
 // Appends the sample of one row whose numbers are in values (slot 0 the time, 1.. the
 // rotation numbers in storage order) to the track; false and the reason when the row is not
-// a rotation (a NaN, a zero quaternion, a matrix that is not a rotation).
+// a rotation (a NaN, a zero quaternion, a matrix that is not a rotation, a non-finite angle).
+// Euler angles become the quaternion of from_euler (euler.hpp) in the mapping's convention.
 inline bool push_row(const ColumnMapping& m, bool quat, const double* values, Track* track,
                      std::string* reason) {
   double w, x, y, z;
@@ -752,6 +936,8 @@ inline bool push_row(const ColumnMapping& m, bool quat, const double* values, Tr
       *reason = "zero quaternion";
       return false;
     }
+  } else if (m.form == TrackForm::Euler) {
+    if (!euler_row(m, values, &w, &x, &y, &z, reason)) return false;
   } else {
     std::array<double, 9> n{};
     for (int k = 0; k < 9; ++k) n[static_cast<std::size_t>(k)] = values[k + 1];
@@ -781,7 +967,7 @@ inline bool push_row(const ColumnMapping& m, bool quat, const double* values, Tr
 Expected<Track> read_json_lines(std::string_view text, const ColumnMapping& m, const ReadProgress& progress,
                                 const std::atomic<bool>* cancel, Track track) {
   const bool quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
-  const std::size_t used = quat ? 4 : 9;
+  const std::size_t used = track_form_numbers(m.form);
   const std::size_t nk = m.json_keys.size();
   std::vector<int> slot_of(nk, -1);  // per key: -1 ignored, 0 time, 1.. rotation numbers
   if (m.time_column >= 0 && static_cast<std::size_t>(m.time_column) < nk)
@@ -885,7 +1071,7 @@ struct RowReader {
         progress(p),
         cancel(c) {
     quat = m.form == TrackForm::QuatWxyz || m.form == TrackForm::QuatXyzw;
-    const std::size_t used = quat ? 4 : 9;
+    const std::size_t used = track_form_numbers(m.form);
     if (m.time_column >= 0 && static_cast<std::size_t>(m.time_column) < m.column_count) {
       slot_of[static_cast<std::size_t>(m.time_column)] = 0;
     }
@@ -1049,7 +1235,7 @@ Expected<Track> read_track_text(std::string_view text, const ColumnMapping& m, c
                                 const std::atomic<bool>* cancel) {
   Track track;
   track.columns = m.columns;
-  track.reading = track_form_name(m.form);
+  track.reading = track_reading_text(m);
   track.has_time = m.time_column >= 0;
   track.time_unit = track.has_time ? m.time_unit : "";
   if (m.json_lines) return read_json_lines(text, m, progress, cancel, std::move(track));

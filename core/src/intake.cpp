@@ -7,6 +7,7 @@
 #include <cmath>
 #include <map>
 
+#include "attiscope/core/convention.hpp"
 #include "attiscope/core/representations.hpp"
 #include "intake_internal.hpp"
 
@@ -742,6 +743,8 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
     ColumnPreferences cp;
     cp.quat_layout = prefs.quat_layout;
     cp.matrix_storage = prefs.matrix_storage;
+    cp.euler = prefs.euler;
+    cp.euler_unit = prefs.unit;
     auto mapping = find_columns(head, cp);
     if (mapping) {
       auto track = read_track_text(text, mapping.value());
@@ -753,14 +756,21 @@ Expected<IntakeResult> read_pasted(std::string_view text, const IntakePreference
         auto first = quaternion_reading({tr.qw[0], tr.qx[0], tr.qy[0], tr.qz[0]}, NumberToken{});
         if (first) {
           Reading r = first.value();
-          const TrackForm f = mapping.value().form;
-          r.kind = f == TrackForm::QuatWxyz || f == TrackForm::QuatXyzw ? IntakeKind::Quaternion
-                                                                        : IntakeKind::Matrix;
+          const ColumnMapping& mp = mapping.value();
+          const TrackForm f = mp.form;
+          r.kind = f == TrackForm::Euler                                  ? IntakeKind::Euler
+                   : f == TrackForm::QuatWxyz || f == TrackForm::QuatXyzw ? IntakeKind::Quaternion
+                                                                          : IntakeKind::Matrix;
           r.layout = track_form_name(f);
+          if (f == TrackForm::Euler) {
+            r.euler = mp.euler;
+            r.unit = mp.euler_unit;
+            r.layout = mp.euler.name() + ", " + angle_unit_name(mp.euler_unit);
+          }
           r.as = parse_reading_kind(track_form_name(f));
-          r.score = mapping.value().ambiguous ? 0.6 : 0.9;
-          r.why =
-              "the first of " + std::to_string(tr.size()) + " rows of a track, read as " + track_form_name(f);
+          r.score = mp.ambiguous ? 0.6 : 0.9;
+          r.why = "the first of " + std::to_string(tr.size()) + " rows of a track, read as " +
+                  track_reading_text(mp);
           r.warnings.clear();
           for (const BadRow& b : tr.bad_rows) {
             r.warnings.push_back("line " + std::to_string(b.line) + ": " + b.reason);

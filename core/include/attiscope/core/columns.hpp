@@ -2,7 +2,9 @@
 // reader of a whole log file into a Track (track.hpp).
 //
 // Column finding uses header names when the first line has them (t, time, stamp, qw, qx,
-// quat_w, orientation.w, q0..q3, r11..r33, ...). Without a header it uses statistics over
+// quat_w, orientation.w, q0..q3, r11..r33, ...; Euler angles by the house convention's own
+// angle names, then roll/pitch/yaw, phi/theta/psi or heading/pitch/bank, with an optional
+// unit suffix such as "_deg", "_rad", "(deg)", "[rad]"). Without a header it uses statistics over
 // the sample rows: four adjacent columns whose rows have unit norm are a quaternion (the
 // slot that holds the scalar is found from the text of the header, or the house layout
 // decides), nine adjacent columns orthonormal per row are a matrix, and a monotonic column
@@ -22,9 +24,11 @@
 #include <string_view>
 #include <vector>
 
+#include "attiscope/core/euler.hpp"
 #include "attiscope/core/expected.hpp"
 #include "attiscope/core/matrix.hpp"
 #include "attiscope/core/quaternion.hpp"
+#include "attiscope/core/text.hpp"
 #include "attiscope/core/track.hpp"
 
 namespace attiscope {
@@ -35,10 +39,13 @@ enum class TrackForm {
   QuatXyzw,    ///< four columns, scalar last
   MatrixRows,  ///< nine columns, row-major, world_R_body
   MatrixCols,  ///< nine columns, column-major, world_R_body
+  Euler,       ///< three angle columns in application order (ColumnMapping::euler, euler_unit)
 };
 
-/// "quat-wxyz", "quat-xyzw", "matrix-rows", "matrix-cols" (the --as names).
+/// "quat-wxyz", "quat-xyzw", "matrix-rows", "matrix-cols", "euler" (the --as names).
 std::string track_form_name(TrackForm f);
+/// How many numbers a row's rotation takes in a form: 3 (Euler), 4 (quaternion) or 9.
+std::size_t track_form_numbers(TrackForm f);
 
 /// Where the time and the rotation are in each row of a log.
 struct ColumnMapping {
@@ -50,22 +57,34 @@ struct ColumnMapping {
   double time_scale = 1.0;       ///< multiply the time column by this to get seconds
   std::string time_unit = "s";   ///< "s", "ms", "us", "ns"
   TrackForm form = TrackForm::QuatWxyz;
-  /// Columns of the rotation numbers in storage order (4 used for a quaternion, 9 for a
-  /// matrix).
+  /// Columns of the rotation numbers in storage order (track_form_numbers(form) are used:
+  /// 3 Euler angles in application order, 4 for a quaternion, 9 for a matrix).
   std::array<int, 9> rotation_columns{};
+  /// The Euler form: the convention of the three angles and their unit.
+  EulerConvention euler;
+  AngleUnit euler_unit = AngleUnit::Degrees;
   std::vector<TrackColumn> columns;  ///< name and role of every column
   std::vector<std::string> notes;    ///< how each choice was made, one sentence each
-  bool ambiguous = false;            ///< a choice the text did not decide (layout, storage)
+  bool ambiguous = false;            ///< a choice the text did not decide (layout, storage, unit)
   /// One JSON object per line: column c is the number under key json_keys[c] (delimiter and
   /// decimal_comma do not apply; header_lines is 0).
   bool json_lines = false;
   std::vector<std::string> json_keys;
 };
 
+/// How the rotation columns are read, for summaries: "quat-wxyz", or for Euler angles
+/// "euler intrinsic ZYX, degrees".
+std::string track_reading_text(const ColumnMapping& m);
+
 /// The house choices column finding falls back on.
 struct ColumnPreferences {
   QuatLayout quat_layout = QuatLayout::ScalarFirst;
   MatrixStorage matrix_storage = MatrixStorage::Rows;
+  /// The house Euler convention: its angle names (application order) are looked for in a
+  /// header before the common ones, and its unit decides when the numbers do not.
+  EulerConvention euler;
+  AngleUnit euler_unit = AngleUnit::Degrees;
+  std::array<std::string, 3> euler_names{"yaw", "pitch", "roll"};
 };
 
 /// Finds the columns from the first lines of a log (a few hundred lines are plenty). Error
@@ -83,9 +102,9 @@ void assign_column_roles(ColumnMapping* m);
 using ReadProgress = std::function<void(std::size_t done, std::size_t total)>;
 
 /// Reads a whole log text with a mapping. Rows that cannot be read (a wrong number of
-/// fields, a field that is not a number, a zero quaternion) are listed in bad_rows with their
-/// line number and skipped; blank and '#' comment lines are counted in skipped_lines.
-/// Error only when the read was cancelled.
+/// fields, a field that is not a number, a zero quaternion, a non-finite angle) are listed in bad_rows with
+/// their line number and skipped; blank and '#' comment lines are counted in skipped_lines. Error only when
+/// the read was cancelled.
 Expected<Track> read_track_text(std::string_view text, const ColumnMapping& mapping,
                                 const ReadProgress& progress = {}, const std::atomic<bool>* cancel = nullptr);
 
