@@ -137,14 +137,7 @@ Expected<Track> read_log(const std::string& path, const CommonOptions& o, std::v
                          ColumnMapping* used) {
   auto head = read_file_head(path);
   if (!head) return head.error();
-  ColumnPreferences prefs;
-  if (o.convention) {
-    prefs.euler = o.convention->euler.convention;
-    prefs.euler_unit = o.convention->euler.unit;
-    prefs.euler_names = o.convention->euler.names;
-    prefs.quat_layout = o.convention->quaternion.layout;
-    prefs.matrix_storage = o.convention->matrix.storage;
-  }
+  ColumnPreferences prefs = o.convention ? column_preferences(*o.convention) : ColumnPreferences{};
   if (o.as == ReadingKind::QuatXyzw) prefs.quat_layout = QuatLayout::ScalarLast;
   if (o.as == ReadingKind::MatrixCols) prefs.matrix_storage = MatrixStorage::Columns;
   if (o.as == ReadingKind::Euler && o.unit_given) prefs.euler_unit = o.unit;

@@ -1141,13 +1141,7 @@ bool open_track(Ui& ui, const std::string& path) {
     st.error = head.error().describe();
     return false;
   }
-  ColumnPreferences prefs;
-  prefs.quat_layout = ui.doc.convention().house.quaternion.layout;
-  prefs.matrix_storage = ui.doc.convention().house.matrix.storage;
-  prefs.euler = ui.doc.convention().house.euler.convention;
-  prefs.euler_unit = ui.doc.convention().house.euler.unit;
-  prefs.euler_names = ui.doc.convention().house.euler.names;
-  auto found = find_columns(head.value(), prefs);
+  auto found = find_columns(head.value(), column_preferences(ui.doc.convention().house));
   if (!found) {
     st.error = path + ": " + found.error().describe();
     return false;

@@ -482,12 +482,25 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     }
     player.steps = steps.value();
   }
-  // Convention files are checked before the window opens, so a bad one is exit code 2.
+  const bool driven = opt.script_path.has_value() || opt.bench_frames > 0;
+  // Scripts save settings like a person's session would (tests point XDG_CONFIG_HOME at a
+  // temporary folder); the benchmark leaves them alone.
+  const bool saves = opt.bench_frames == 0;
+
+  const std::string dir = config_dir().value_or("");
+  std::string warning;
+  Settings settings = load_settings(dir, &warning);
+  if (!warning.empty()) err << "attiscope gui: " << warning << "\n";
+  // Convention files are checked before the window opens, so a bad one is exit code 2; a
+  // log's columns are looked for with the house convention the window will read it with
+  // (the one in effect at its place in the list).
+  HouseConvention house = demo_state(settings).convention.house;
   for (const std::string& f : opt.files) {
     if (std::filesystem::path(f).extension() != ".toml") {
       // A log: its columns must be found (the Track panel reads the rest once the window is up).
       auto head = read_file_head(f);
-      auto found = head ? find_columns(head.value()) : Expected<ColumnMapping>(head.error());
+      auto found = head ? find_columns(head.value(), column_preferences(house))
+                        : Expected<ColumnMapping>(head.error());
       if (!found) {
         err << "attiscope gui: " << f << ": " << found.error().describe() << "\n";
         return 2;
@@ -499,16 +512,8 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       err << "attiscope gui: " << f << ": " << loaded.error().describe() << "\n";
       return 2;
     }
+    house = loaded.value().house;
   }
-  const bool driven = opt.script_path.has_value() || opt.bench_frames > 0;
-  // Scripts save settings like a person's session would (tests point XDG_CONFIG_HOME at a
-  // temporary folder); the benchmark leaves them alone.
-  const bool saves = opt.bench_frames == 0;
-
-  const std::string dir = config_dir().value_or("");
-  std::string warning;
-  Settings settings = load_settings(dir, &warning);
-  if (!warning.empty()) err << "attiscope gui: " << warning << "\n";
   SettingsStore store(dir);
   if (opt.width > 0) {
     settings.window_width = opt.width;

@@ -667,6 +667,16 @@ void assign_column_roles(ColumnMapping* m) {
   }
 }
 
+ColumnPreferences column_preferences(const HouseConvention& house) {
+  ColumnPreferences prefs;
+  prefs.quat_layout = house.quaternion.layout;
+  prefs.matrix_storage = house.matrix.storage;
+  prefs.euler = house.euler.convention;
+  prefs.euler_unit = house.euler.unit;
+  prefs.euler_names = house.euler.names;
+  return prefs;
+}
+
 Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPreferences& prefs) {
   ColumnMapping m;
   const std::vector<std::string_view> lines = split_lines(sample);

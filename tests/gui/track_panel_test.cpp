@@ -158,6 +158,27 @@ TEST_F(TrackPanelTest, ColumnEditRereadsScalarLast) {
   EXPECT_TRUE(test::RotationNear(pose(d1), SampleRotation(t, 1), kFromLog));
 }
 
+TEST_F(TrackPanelTest, HouseNamedAnglesOpenFromTheCommandLine) {
+  // An invented camera-rig log in the rig's own angle names (assets/conventions/camera-rig.toml:
+  // pan, tilt, spin, intrinsic YXZ, degrees).
+  std::ofstream f(path("rig.csv"));
+  f << "t,pan,tilt,spin\n";
+  for (int i = 0; i < 50; ++i) f << 0.1 * i << ',' << 2.0 * i << ',' << -0.5 * i << ",3\n";
+  f.close();
+  // With the default house convention its columns are not found: the window does not open.
+  EXPECT_EQ(run("frames 1\n", "", {path("rig.csv")}), 2);
+  EXPECT_NE(err_.find("rig.csv"), std::string::npos) << err_;
+  // Given after the rig's convention, it opens, read in that convention.
+  const std::string rig = std::string(ATTISCOPE_SOURCE_DIR) + "/assets/conventions/camera-rig.toml";
+  ASSERT_EQ(run("wait\nframes 2\ndump " + path("0.json") + "\n", "", {rig, path("rig.csv")}), 0) << err_;
+  const auto d = dump("0.json");
+  EXPECT_EQ(d["track"]["report"]["samples"], 50);
+  // The first sample is pan 0, tilt 0, spin 3 degrees: a turn of 3 degrees about the body's z.
+  const EulerConvention yxz{{Axis::Y, Axis::X, Axis::Z}, EulerKind::Intrinsic};
+  constexpr double kDegree = 3.14159265358979323846 / 180.0;
+  EXPECT_TRUE(test::RotationNear(pose(d), from_euler(yxz, Eigen::Vector3d(0.0, 0.0, 3.0) * kDegree), 1e-9));
+}
+
 TEST_F(TrackPanelTest, JsonLinesFromThePathBox) {
   const Track t = Generated();
   std::ofstream f(path("rover.jsonl"));

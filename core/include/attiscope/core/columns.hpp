@@ -87,6 +87,11 @@ struct ColumnPreferences {
   std::array<std::string, 3> euler_names{"yaw", "pitch", "roll"};
 };
 
+struct HouseConvention;
+/// The house choices of a house convention: its quaternion layout, matrix storage, Euler
+/// convention, angle unit and angle names.
+ColumnPreferences column_preferences(const HouseConvention& house);
+
 /// Finds the columns from the first lines of a log (a few hundred lines are plenty). Error
 /// when no rotation columns are found, naming the line the trouble is on.
 Expected<ColumnMapping> find_columns(std::string_view sample, const ColumnPreferences& preferences = {});
