@@ -41,6 +41,8 @@ constexpr int kRingSegments = 72, kRingSides = 8;
 constexpr float kGhostAlpha = 0.36f;
 constexpr float kGhostTint = 0.55f;
 constexpr float kHighlightGlow = 0.45f;
+/// Strength of the key light's highlight on the meshes.
+constexpr float kSpecular = 0.22f;
 
 Eigen::Matrix4f to_gl(const Eigen::Matrix4d& m) {
   return m.cast<float>();
@@ -118,7 +120,7 @@ struct Target {
 
 /// Uniform locations of the mesh program.
 struct MeshUniforms {
-  GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow;
+  GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow, half, spec;
 };
 
 struct TextVertex {
@@ -527,6 +529,7 @@ struct SceneRenderer::State {
     glUniform4fv(mu.tint, 1, tint.data());
     glUniform1f(mu.alpha, alpha);
     glUniform4fv(mu.glow, 1, glow.data());
+    glUniform1f(mu.spec, kSpecular * (1.0f - 0.5f * glow.w()));  // a glow mutes the highlight
     glBindVertexArray(m.vao.get());
     glDrawElements(GL_TRIANGLES, m.count, GL_UNSIGNED_INT, nullptr);
     triangles += m.triangles;
@@ -609,7 +612,8 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
           glGetUniformLocation(mp, "u_view_proj"), glGetUniformLocation(mp, "u_eye"),
           glGetUniformLocation(mp, "u_up"),        glGetUniformLocation(mp, "u_key"),
           glGetUniformLocation(mp, "u_fill"),      glGetUniformLocation(mp, "u_tint"),
-          glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow")};
+          glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow"),
+          glGetUniformLocation(mp, "u_half"),      glGetUniformLocation(mp, "u_spec")};
   s.empty_vao = gl::make_vertex_array();
 
   // Unit arrow along +z: shaft to 0.84, cone to 1 (radii scale with the arrow's thickness).
@@ -680,6 +684,8 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
       (pose.world_R_view * Eigen::Vector3d(0.7, -0.25, 0.45).normalized()).cast<float>();
   glUniform3fv(mu.key, 1, key.data());
   glUniform3fv(mu.fill, 1, fill.data());
+  const Eigen::Vector3f half = (key + pose.world_R_view.col(2).cast<float>()).normalized();
+  glUniform3fv(mu.half, 1, half.data());
   const Eigen::Vector4f no_tint(0, 0, 0, 0), no_glow(0, 0, 0, 0);
   const Eigen::Vector3f hl = vec(palette.highlight);
   const Eigen::Vector4f glow(hl.x(), hl.y(), hl.z(), kHighlightGlow);

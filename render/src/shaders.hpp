@@ -5,6 +5,12 @@ namespace attiscope::render::detail {
 
 // Lit meshes: a key light from the viewer's upper left, a weak fill from the right, a
 // hemisphere ambient around world up, a small specular, and a rim glow for highlights.
+// The diffuse, ambient and glow terms are worked out per vertex (our models are flat faces
+// and smooth tubes, where that equals the per-pixel result across a face); only the
+// specular stays per pixel, with the view direction of the camera's axis (u_half is the
+// key light's half vector with it) and the power by squaring. On a software rasteriser every
+// instruction of the fragment shader runs for every covered pixel while the vertex shader
+// runs a few thousand times a frame.
 inline const char* kMeshVertex = R"(#version 330 core
 layout(location = 0) in vec3 a_pos;
 layout(location = 1) in vec3 a_normal;
@@ -12,45 +18,47 @@ layout(location = 2) in vec4 a_color;
 uniform mat4 u_model;
 uniform mat3 u_normal_matrix;
 uniform mat4 u_view_proj;
-out vec3 v_pos;
-out vec3 v_normal;
-out vec4 v_color;
-void main() {
-  vec4 w = u_model * vec4(a_pos, 1.0);
-  v_pos = w.xyz;
-  v_normal = u_normal_matrix * a_normal;
-  v_color = a_color;
-  gl_Position = u_view_proj * w;
-}
-)";
-
-inline const char* kMeshFragment = R"(#version 330 core
-in vec3 v_pos;
-in vec3 v_normal;
-in vec4 v_color;
 uniform vec3 u_eye;
 uniform vec3 u_up;
 uniform vec3 u_key;
 uniform vec3 u_fill;
 uniform vec4 u_tint;        // rgb, and how much it replaces the vertex colour
-uniform float u_alpha;
 uniform vec4 u_glow;        // rgb, amount
-out vec4 o_color;
+out vec3 v_color;
+out vec3 v_normal;
 void main() {
-  vec3 n = normalize(v_normal);
-  vec3 v = normalize(u_eye - v_pos);
+  vec4 w = u_model * vec4(a_pos, 1.0);
+  vec3 n = normalize(u_normal_matrix * a_normal);
+  vec3 v = normalize(u_eye - w.xyz);
   if (dot(n, v) < 0.0) n = -n;  // two-sided: thin parts and open shells
-  vec3 base = mix(v_color.rgb, u_tint.rgb, u_tint.a);
+  vec3 base = mix(a_color.rgb, u_tint.rgb, u_tint.a);
   float hemi = 0.5 + 0.5 * dot(n, u_up);
   vec3 ambient = mix(vec3(0.34, 0.34, 0.37), vec3(0.52, 0.52, 0.54), hemi);
   float key = max(dot(n, u_key), 0.0);
   float fill = max(dot(n, u_fill), 0.0);
-  vec3 h = normalize(u_key + v);
-  float spec = pow(max(dot(n, h), 0.0), 40.0) * 0.22;
-  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill) + vec3(spec);
+  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill);
   float rim = pow(1.0 - max(dot(n, v), 0.0), 2.0);
-  c = mix(c, u_glow.rgb, u_glow.a * (0.35 + 0.65 * rim));
-  o_color = vec4(c, u_alpha);
+  v_color = mix(c, u_glow.rgb, u_glow.a * (0.35 + 0.65 * rim));
+  v_normal = n;
+  gl_Position = u_view_proj * w;
+}
+)";
+
+inline const char* kMeshFragment = R"(#version 330 core
+in vec3 v_color;
+in vec3 v_normal;
+uniform vec3 u_half;
+uniform float u_alpha;
+uniform float u_spec;       // 0 under a highlight's glow
+out vec4 o_color;
+void main() {
+  float s = max(dot(normalize(v_normal), u_half), 0.0);
+  s *= s;  // s^2
+  s *= s;  // s^4
+  float s8 = s * s;
+  s = s8 * s8;  // s^16
+  s = s * s * s8;  // s^40
+  o_color = vec4(v_color + vec3(u_spec * s), u_alpha);
 }
 )";
 
