@@ -90,12 +90,21 @@ struct Target {
   gl::Renderbuffer depth;
   int width = 0, height = 0;
   std::string picture;  ///< fingerprint of the scene the target holds (empty: none)
+  /// The smoothed picture (made on first use): its own colour, sharing `depth`, whose
+  /// stencil marks the edges; `mark_fbo` holds `depth` alone, for marking them.
+  gl::Framebuffer smooth_fbo, mark_fbo;
+  gl::Texture smooth;
+  bool smoothed = false;  ///< `smooth` holds the smoothed `picture`
 
   void ensure(int w, int h) {
     if (fbo && w == width && h == height) return;
     width = w;
     height = h;
     picture.clear();
+    smoothed = false;
+    smooth_fbo = gl::Framebuffer();
+    mark_fbo = gl::Framebuffer();
+    smooth = gl::Texture();
     fbo = gl::make_framebuffer();
     color = gl::make_texture();
     depth = gl::make_renderbuffer();
@@ -115,6 +124,26 @@ struct Target {
     glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
     glBindTexture(GL_TEXTURE_2D, 0);
     gl::check("target allocation");
+  }
+
+  void ensure_smooth() {
+    if (smooth_fbo) return;
+    smooth = gl::make_texture();
+    glBindTexture(GL_TEXTURE_2D, smooth.get());
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
+    glBindTexture(GL_TEXTURE_2D, 0);
+    smooth_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, smooth_fbo.get());
+    glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, smooth.get(), 0);
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
+    mark_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, mark_fbo.get());
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
+    glDrawBuffer(GL_NONE);
+    glReadBuffer(GL_NONE);
+    gl::check("smoothing target allocation");
   }
 };
 
@@ -409,7 +438,7 @@ struct SceneRenderer::State {
   std::size_t triangles = 0;
   bool reused = false;  ///< the last draw showed the kept picture of an unchanged scene
 
-  gl::Program mesh_program, grid_program, post_program, text_program;
+  gl::Program mesh_program, grid_program, edge_program, post_program, text_program;
   MeshUniforms mu{};
   gl::VertexArray empty_vao;
   GpuMesh grid, arrow, rod;
@@ -585,6 +614,8 @@ struct SceneRenderer::State {
   }
 
   void render_scene(const SceneState& st, int w, int h);
+  /// Makes t.smooth: the scene of `t` with its edges smoothed.
+  void smooth_scene(const SceneState& st, Target& t);
   void collect_labels(const SceneState& st, int w, int h);
   void draw_labels(int w, int h);
 };
@@ -664,7 +695,9 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   glStencilMask(0xFF);
   glClearDepth(1.0);
   glClearStencil(0);
-  glClearColor(palette.background[0], palette.background[1], palette.background[2], 1.0f);
+  // Alpha marks what the meshes cover (1 opaque, kGhostAlpha the ghost, 0 elsewhere: the
+  // grid keeps it), so the smoothing pass leaves the grid's lines alone.
+  glClearColor(palette.background[0], palette.background[1], palette.background[2], 0.0f);
   glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
 
   const Eigen::Vector3d ground = world_triad_origin(st);
@@ -760,7 +793,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   // Ground grid (blended, no depth writes so the triad and the body stay crisp over it).
   if (st.show_grid) {
     glEnable(GL_BLEND);
-    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ZERO, GL_ONE);
     glDepthMask(GL_FALSE);
     const GLuint gp = grid_program.get();
     glUseProgram(gp);
@@ -797,7 +830,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f, no_glow);
     glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
     glEnable(GL_BLEND);
-    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ZERO);
     glDepthMask(GL_FALSE);
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(),
               Eigen::Vector4f(gc.x(), gc.y(), gc.z(), kGhostTint), kGhostAlpha,
@@ -911,6 +944,75 @@ void SceneRenderer::State::draw_labels(int w, int h) {
   gl::check("labels");
 }
 
+void SceneRenderer::State::smooth_scene(const SceneState& st, Target& t) {
+  const int w = t.width, h = t.height;
+  t.ensure_smooth();
+  // The smoothed picture starts as a copy of the scene (rows, no shading).
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
+  glDisable(GL_SCISSOR_TEST);
+  glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+  t.smoothed = true;
+  // Smooth only the pixels the meshes can cover: the background and the grid are smooth
+  // already (the grid's lines are antialiased analytically), and on a software rasteriser
+  // every post-processed pixel costs.
+  std::vector<Eigen::Vector3d> extra = chain_points(st);
+  for (const PlacedModel& p : st.props) {
+    const Eigen::AlignedBox3d b = model_box(ModelChoice{p.kind, false});
+    for (int c = 0; c < 8; ++c)
+      extra.push_back(p.offset + p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
+  }
+  const std::vector<PixelBox> boxes = mesh_pixel_bounds(st, model_box(st.model), w, h, extra);
+  if (boxes.empty()) return;
+  if (!edge_program) {  // made on first use, like the text program
+    auto edge_p = gl::make_program("edge", detail::kFullscreenVertex, detail::kEdgeFragment);
+    if (!edge_p) {
+      warnings.push_back(edge_p.error().describe());
+      return;
+    }
+    edge_program = std::move(edge_p.value());
+  }
+  glViewport(0, 0, w, h);
+  glDisable(GL_DEPTH_TEST);
+  glDisable(GL_BLEND);
+  glEnable(GL_SCISSOR_TEST);
+  glEnable(GL_STENCIL_TEST);
+  glActiveTexture(GL_TEXTURE0);
+  glBindTexture(GL_TEXTURE_2D, t.color.get());
+  glBindVertexArray(empty_vao.get());
+  auto cover_boxes = [&] {
+    for (const PixelBox& box : boxes) {
+      glScissor(box.x, h - box.y - box.height, box.width, box.height);
+      glDrawArrays(GL_TRIANGLES, 0, 3);
+    }
+  };
+  // Mark the edge pixels in the stencil (the scene pass cleared it and does not use it).
+  glBindFramebuffer(GL_FRAMEBUFFER, t.mark_fbo.get());
+  const GLuint ep = edge_program.get();
+  glUseProgram(ep);
+  glUniform1i(glGetUniformLocation(ep, "u_scene"), 0);
+  glStencilMask(0xFF);
+  glStencilFunc(GL_ALWAYS, 1, 0xFF);
+  glStencilOp(GL_KEEP, GL_KEEP, GL_REPLACE);
+  cover_boxes();
+  // Blend them, under an early stencil test: unmarked blocks of pixels are not shaded.
+  glBindFramebuffer(GL_FRAMEBUFFER, t.smooth_fbo.get());
+  const GLuint pp = post_program.get();
+  glUseProgram(pp);
+  glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
+  glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
+              1.0f / static_cast<float>(h));
+  glStencilMask(0x00);
+  glStencilFunc(GL_EQUAL, 1, 0xFF);
+  glStencilOp(GL_KEEP, GL_KEEP, GL_KEEP);
+  cover_boxes();
+  glStencilMask(0xFF);
+  glDisable(GL_STENCIL_TEST);
+  glDisable(GL_SCISSOR_TEST);
+  glBindTexture(GL_TEXTURE_2D, 0);
+  gl::check("smoothing pass");
+}
+
 void SceneRenderer::draw(const SceneState& state, const Region& region) {
   State& s = *state_;
   if (region.width <= 0 || region.height <= 0) return;
@@ -936,11 +1038,17 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
     glViewport(0, 0, w, h);
     s.render_scene(state, w, h);
     t.picture = std::move(picture);
+    t.smoothed = false;
+  }
+  GLuint shown = t.fbo.get();
+  if (s.options.antialiasing == Antialiasing::Post) {
+    if (!t.smoothed) s.smooth_scene(state, t);
+    shown = t.smooth_fbo.get();
   }
 
-  // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the
-  // smoothing pass over the part the meshes can cover, then the labels on top (unsmoothed).
-  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+  // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the labels
+  // on top (unsmoothed).
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, shown);
   glBindFramebuffer(GL_DRAW_FRAMEBUFFER, dest);
   glDisable(GL_SCISSOR_TEST);
   glBlitFramebuffer(0, 0, w, h, gl_x, gl_y, gl_x + w, gl_y + h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
@@ -948,37 +1056,6 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   glEnable(GL_SCISSOR_TEST);
   glScissor(gl_x, gl_y, w, h);
   glDisable(GL_DEPTH_TEST);
-  if (s.options.antialiasing == Antialiasing::Post) {
-    // Smooth only the pixels the meshes can cover: the background and the grid are smooth
-    // already (the grid's lines are antialiased analytically), and on a software rasteriser
-    // every post-processed pixel costs.
-    std::vector<Eigen::Vector3d> extra = chain_points(state);
-    for (const PlacedModel& p : state.props) {
-      const Eigen::AlignedBox3d b = s.model_box(ModelChoice{p.kind, false});
-      for (int c = 0; c < 8; ++c)
-        extra.push_back(p.offset +
-                        p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
-    }
-    const std::vector<PixelBox> boxes = mesh_pixel_bounds(state, s.model_box(state.model), w, h, extra);
-    if (!boxes.empty()) {
-      const GLuint pp = s.post_program.get();
-      glUseProgram(pp);
-      glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
-      glUniform2f(glGetUniformLocation(pp, "u_origin"), static_cast<float>(gl_x), static_cast<float>(gl_y));
-      glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
-                  1.0f / static_cast<float>(h));
-      glActiveTexture(GL_TEXTURE0);
-      glBindTexture(GL_TEXTURE_2D, t.color.get());
-      glBindVertexArray(s.empty_vao.get());
-      for (const PixelBox& box : boxes) {
-        glScissor(gl_x + box.x, gl_y + (h - box.y - box.height), box.width, box.height);
-        glDrawArrays(GL_TRIANGLES, 0, 3);
-      }
-      glBindTexture(GL_TEXTURE_2D, 0);
-      glScissor(gl_x, gl_y, w, h);
-      gl::check("post pass");
-    }
-  }
   if (!s.labels_on_cpu) s.draw_labels(w, h);
   // Leave GL as the caller's drawing expects it.
   glDisable(GL_SCISSOR_TEST);

@@ -134,34 +134,56 @@ void main() {
 }
 )";
 
-// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper): find the local edge
-// direction from the luma of the four diagonal neighbours and blend two taps along it (the
-// paper's narrow blend; its wider four-tap blend doubled this pass's cost on llvmpipe, which
-// runs both sides of a branch, for a barely visible gain on our flat-shaded models). Flat
-// pixels are discarded: the picture under them is already the scene's.
+// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper), in two passes so
+// that a software rasteriser shades only the edges. llvmpipe runs both sides of a branch
+// and a discard does not end the shader early, but it does skip a block of pixels whose
+// early stencil test fails: so the first pass (kEdgeFragment) only looks for edges, by the
+// luma range of a pixel and its four diagonal neighbours, and marks them in the stencil
+// (flat pixels are discarded); the second (kPostFragment) runs under a stencil test on the
+// marked pixels, finds the local edge direction from the four diagonals and blends two taps
+// along it (the paper's narrow blend; its wider four-tap blend doubled the pass's cost for a
+// barely visible gain on our flat-shaded models). Both read the unsmoothed scene.
+inline const char* kEdgeFragment = R"(#version 330 core
+uniform sampler2D u_scene;
+out vec4 o_color;
+const vec3 kLuma = vec3(0.299, 0.587, 0.114);
+const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
+const float kMeshCover = 0.2;    // below the ghost's alpha
+void main() {
+  // Unfiltered fetches at texel centres (cheap on a software rasteriser).
+  ivec2 p = ivec2(gl_FragCoord.xy);
+  ivec2 hi = textureSize(u_scene, 0) - 1;
+  vec4 m = texelFetch(u_scene, p, 0);
+  vec4 nw = texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0);
+  vec4 ne = texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0);
+  vec4 sw = texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0);
+  vec4 se = texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0);
+  float lm = dot(m.rgb, kLuma), lnw = dot(nw.rgb, kLuma), lne = dot(ne.rgb, kLuma);
+  float lsw = dot(sw.rgb, kLuma), lse = dot(se.rgb, kLuma);
+  float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
+  float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
+  // Alpha is the meshes' cover (0 on the background and the grid, already smooth).
+  float cover = max(m.a, max(max(nw.a, ne.a), max(sw.a, se.a)));
+  if (lmax - lmin < kFlat || cover < kMeshCover) discard;
+  o_color = vec4(0.0);
+}
+)";
+
 inline const char* kPostFragment = R"(#version 330 core
 uniform sampler2D u_scene;
-uniform vec2 u_origin;   // window pixel of the region's lower-left corner
 uniform vec2 u_texel;    // 1 / size
 out vec4 o_color;
 const vec3 kLuma = vec3(0.299, 0.587, 0.114);
 const float kReduceMin = 1.0 / 128.0;
 const float kReduceMul = 1.0 / 8.0;
 const float kSpanMax = 8.0;
-const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
 void main() {
-  // The five taps at texel centres are unfiltered fetches (cheap on a software rasteriser).
-  ivec2 p = ivec2(gl_FragCoord.xy - u_origin);
+  ivec2 p = ivec2(gl_FragCoord.xy);
   ivec2 hi = textureSize(u_scene, 0) - 1;
-  vec3 m = texelFetch(u_scene, p, 0).rgb;
-  vec3 nw = texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0).rgb;
-  vec3 ne = texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0).rgb;
-  vec3 sw = texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0).rgb;
-  vec3 se = texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0).rgb;
-  float lm = dot(m, kLuma), lnw = dot(nw, kLuma), lne = dot(ne, kLuma), lsw = dot(sw, kLuma), lse = dot(se, kLuma);
-  float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
-  float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
-  if (lmax - lmin < kFlat) discard;
+  float lnw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0).rgb, kLuma);
+  float lne = dot(texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0).rgb, kLuma);
+  float lsw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0).rgb, kLuma);
+  float lse = dot(texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0).rgb, kLuma);
   vec2 uv = (vec2(p) + 0.5) * u_texel;
   vec2 dir = vec2(-((lnw + lne) - (lsw + lse)), (lnw + lsw) - (lne + lse));
   float reduce = max((lnw + lne + lsw + lse) * 0.25 * kReduceMul, kReduceMin);
