@@ -183,10 +183,20 @@ struct GridVertex {
 /// cut into short segments so the fade and the near-plane clip stay smooth.
 GpuMesh build_grid() {
   constexpr double kGridMinor = 0.5, kGridMajor = 1.0, kSegment = 3.0;
+  // A segment whose two ends have faded below this alpha is left out (it would change no
+  // pixel by more than one level in 8 bits, but a software rasteriser still shades it).
+  constexpr float kInvisibleAlpha = 0.01f;
+  auto faded = [](const Eigen::Vector2d& p, float alpha) {  // kGridVertex's fade, on the CPU
+    const double t =
+        std::clamp((p.norm() - 0.45 * double(kGridExtent)) / (0.55 * double(kGridExtent)), 0.0, 1.0);
+    return alpha * static_cast<float>(1.0 - t * t * (3.0 - 2.0 * t));
+  };
   constexpr float kMinorHalf = 0.5f, kMajorHalf = 0.7f, kAxisHalf = 1.2f;
   constexpr float kMinorAlpha = 0.22f, kMajorAlpha = 0.45f, kAxisAlpha = 0.85f;
   std::vector<GridVertex> v;
   auto segment = [&](Eigen::Vector2d a, Eigen::Vector2d b, float half, float alpha, float kind) {
+    // The world axes (kind > 0) may be mirrored in the shader: always kept.
+    if (kind < 0.5f && std::max(faded(a, alpha), faded(b, alpha)) < kInvisibleAlpha) return;
     const GridVertex a0{float(a.x()), float(a.y()), float(b.x()), float(b.y()), -1.0f, half, alpha, kind};
     const GridVertex a1{float(a.x()), float(a.y()), float(b.x()), float(b.y()), 1.0f, half, alpha, kind};
     // The far end's offset uses the same direction, so its "other" is the near end and its

@@ -111,11 +111,15 @@ void main() {
   vec2 d = s1 - s0;
   d = length(d) > 1e-6 ? normalize(d) : vec2(1.0, 0.0);
   float half_w = a_style.y;
-  float reach = half_w + 1.0;  // one more pixel for the falloff
+  float reach = half_w + 0.5;  // where the fragment shader's coverage reaches 0
   vec2 offset = vec2(-d.y, d.x) * a_style.x * reach;
   gl_Position = c0 + vec4(offset / (0.5 * u_viewport) * c0.w, 0.0, 0.0);
   if (c0.w < kNearW) gl_Position = vec4(2.0, 2.0, 2.0, 1.0);  // both ends behind the eye
-  v_dist = a_style.x * reach;
+  // The offset's side is relative to this end's own direction, which is reversed at the far
+  // end; the distance is measured to one side of the segment (from its lexicographically
+  // smaller end), so it interpolates across the strip the same way from both ends.
+  bool from_first = a_uv.x < a_other.x || (a_uv.x == a_other.x && a_uv.y < a_other.y);
+  v_dist = a_style.x * reach * (from_first ? 1.0 : -1.0);
   v_half = half_w;
   float fade = 1.0 - smoothstep(0.45 * u_extent, u_extent, length(uv));
   vec3 col = a_kind < 0.5 ? u_color : (a_kind < 1.5 ? u_x_color : u_y_color);
