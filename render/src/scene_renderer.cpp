@@ -36,7 +36,7 @@ constexpr double kLabelAirPx = 4.0;
 constexpr float kGridExtent = 6.0f;
 /// Ring tube radius, segments around the ring and around the tube.
 constexpr double kRingTube = 0.034;
-constexpr int kRingSegments = 72, kRingSides = 8;
+constexpr int kRingSegments = 56, kRingSides = 6;
 /// Translucency of the reference ghost, and how much of its colour is the ghost tint.
 constexpr float kGhostAlpha = 0.36f;
 constexpr float kGhostTint = 0.55f;
