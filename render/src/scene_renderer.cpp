@@ -102,6 +102,9 @@ struct Target {
     height = h;
     picture.clear();
     smoothed = false;
+    ground_key.clear();
+    ground_fbo = gl::Framebuffer();
+    ground = gl::Texture();
     smooth_fbo = gl::Framebuffer();
     mark_fbo = gl::Framebuffer();
     smooth = gl::Texture();
@@ -124,6 +127,26 @@ struct Target {
     glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
     glBindTexture(GL_TEXTURE_2D, 0);
     gl::check("target allocation");
+  }
+
+  /// The background with the ground grid, kept while the camera stays (the body turning
+  /// does not change it) and copied in instead of a clear and the grid's strips.
+  gl::Framebuffer ground_fbo;
+  gl::Texture ground;
+  std::string ground_key;  ///< fingerprint of what `ground` holds (empty: none)
+
+  void ensure_ground() {
+    if (ground_fbo) return;
+    ground = gl::make_texture();
+    glBindTexture(GL_TEXTURE_2D, ground.get());
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
+    glBindTexture(GL_TEXTURE_2D, 0);
+    ground_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, ground_fbo.get());
+    glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, ground.get(), 0);
+    gl::check("ground target allocation");
   }
 
   void ensure_smooth() {
@@ -623,7 +646,8 @@ struct SceneRenderer::State {
     }
   }
 
-  void render_scene(const SceneState& st, int w, int h);
+  /// Draws the scene into `t` (its framebuffer bound, viewport set).
+  void render_scene(const SceneState& st, Target& t);
   /// Makes t.smooth: the scene of `t` with its edges smoothed.
   void smooth_scene(const SceneState& st, Target& t);
   void collect_labels(const SceneState& st, int w, int h);
@@ -685,7 +709,8 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   return r;
 }
 
-void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
+void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
+  const int w = t.width, h = t.height;
   view_w = w;
   view_h = h;
   const WorldFrame& world = st.world;
@@ -708,7 +733,66 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   // Alpha marks what the meshes cover (1 opaque, kGhostAlpha the ghost, 0 elsewhere: the
   // grid keeps it), so the smoothing pass leaves the grid's lines alone.
   glClearColor(palette.background[0], palette.background[1], palette.background[2], 0.0f);
-  glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  // The ground grid: blended, no depth writes, so the triads and the body stay crisp over it.
+  auto draw_grid = [&] {
+    glEnable(GL_BLEND);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ZERO, GL_ONE);
+    glDepthMask(GL_FALSE);
+    const GLuint gp = grid_program.get();
+    glUseProgram(gp);
+    Eigen::Vector3d e1, e2;
+    ground_axes(world, &e1, &e2);
+    const Eigen::Vector3f o = ground_centre(st).cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
+    glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
+    glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
+    glUniform2f(glGetUniformLocation(gp, "u_viewport"), static_cast<float>(w), static_cast<float>(h));
+    glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
+    glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
+    glUniform1f(glGetUniformLocation(gp, "u_foot"), static_cast<float>(kWorldTriadOffset));
+    glUniform1f(glGetUniformLocation(gp, "u_y_flip"), e2.y() < 0.0 ? 1.0f : 0.0f);
+    glBindVertexArray(grid.vao.get());
+    glDrawArrays(GL_TRIANGLES, 0, grid.count);
+    triangles += grid.triangles;
+    glDepthMask(GL_TRUE);
+    glDisable(GL_BLEND);
+  };
+  // Seen from above, everything drawn stands on or over the ground, so the grid can go
+  // first, into the view's kept ground picture (drawn again only when the camera, size or
+  // palette change); seen from below it is drawn after the meshes, over what it hides.
+  const bool ground_first = st.show_grid && (eye - ground_centre(st)).dot(up) > 0.0;
+  if (ground_first) {
+    Fingerprint key;
+    const Camera& c = st.camera;
+    key.add(c.target);
+    for (double v : {c.azimuth_rad, c.elevation_rad, c.distance, c.fov_y_rad, c.near_plane, c.far_plane})
+      key.add(v);
+    key.add(world.up);
+    key.add(ground_centre(st));
+    key.add(static_cast<double>(w));
+    key.add(static_cast<double>(h));
+    for (const auto* colour : {&palette.background, &palette.grid, &palette.axis_x, &palette.axis_y})
+      for (float v : *colour) key.add(static_cast<double>(v));
+    if (t.ground_key != key.bytes()) {
+      t.ensure_ground();
+      glBindFramebuffer(GL_FRAMEBUFFER, t.ground_fbo.get());
+      glClear(GL_COLOR_BUFFER_BIT);
+      draw_grid();
+      t.ground_key = key.bytes();
+    } else {
+      triangles += grid.triangles;
+    }
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, t.ground_fbo.get());
+    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.fbo.get());
+    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
+    glClear(GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  } else {
+    glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  }
 
   const Eigen::Vector3d ground = world_triad_origin(st);
   glEnable(GL_DEPTH_TEST);
@@ -800,33 +884,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   }
   gl::check("opaque pass");
 
-  // Ground grid (blended, no depth writes so the triad and the body stay crisp over it).
-  if (st.show_grid) {
-    glEnable(GL_BLEND);
-    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ZERO, GL_ONE);
-    glDepthMask(GL_FALSE);
-    const GLuint gp = grid_program.get();
-    glUseProgram(gp);
-    Eigen::Vector3d e1, e2;
-    ground_axes(world, &e1, &e2);
-    const Eigen::Vector3f o = ground_centre(st).cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
-    glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
-    glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
-    glUniform2f(glGetUniformLocation(gp, "u_viewport"), static_cast<float>(w), static_cast<float>(h));
-    glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
-    glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
-    glUniform1f(glGetUniformLocation(gp, "u_foot"), static_cast<float>(kWorldTriadOffset));
-    glUniform1f(glGetUniformLocation(gp, "u_y_flip"), e2.y() < 0.0 ? 1.0f : 0.0f);
-    glBindVertexArray(grid.vao.get());
-    glDrawArrays(GL_TRIANGLES, 0, grid.count);
-    triangles += grid.triangles;
-    glDepthMask(GL_TRUE);
-    glDisable(GL_BLEND);
-  }
+  if (st.show_grid && !ground_first) draw_grid();
 
   // Reference ghost: a depth-only pass first, so only its nearest surface is blended (a
   // clean single layer instead of overlapping translucent shells).
@@ -1046,7 +1104,7 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   if (!s.reused) {
     glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
     glViewport(0, 0, w, h);
-    s.render_scene(state, w, h);
+    s.render_scene(state, t);
     t.picture = std::move(picture);
     t.smoothed = false;
   }
