@@ -41,6 +41,9 @@ constexpr int kRingSegments = 56, kRingSides = 6;
 constexpr float kGhostAlpha = 0.36f;
 constexpr float kGhostTint = 0.55f;
 constexpr float kHighlightGlow = 0.45f;
+/// Alpha of the scene's pixels no mesh covers: one step below opaque in 8 bits (see
+/// kEdgeFragment's kMeshCover).
+constexpr float kUncoveredAlpha = 254.0f / 255.0f;
 /// Strength of the key light's highlight on the meshes.
 constexpr float kSpecular = 0.22f;
 
@@ -730,9 +733,10 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
   glStencilMask(0xFF);
   glClearDepth(1.0);
   glClearStencil(0);
-  // Alpha marks what the meshes cover (1 opaque, kGhostAlpha the ghost, 0 elsewhere: the
-  // grid keeps it), so the smoothing pass leaves the grid's lines alone.
-  glClearColor(palette.background[0], palette.background[1], palette.background[2], 0.0f);
+  // Alpha marks what the meshes (and the ghost) cover: 1 there, kUncoveredAlpha elsewhere
+  // (the grid keeps it), so the smoothing pass leaves the grid's lines alone. Both show as
+  // opaque when a view lands in a window whose alpha a desktop composites.
+  glClearColor(palette.background[0], palette.background[1], palette.background[2], kUncoveredAlpha);
   // The ground grid: blended, no depth writes, so the triads and the body stay crisp over it.
   auto draw_grid = [&] {
     glEnable(GL_BLEND);
@@ -898,7 +902,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f, no_glow);
     glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
     glEnable(GL_BLEND);
-    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ZERO);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ONE);  // alpha: covered
     glDepthMask(GL_FALSE);
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(),
               Eigen::Vector4f(gc.x(), gc.y(), gc.z(), kGhostTint), kGhostAlpha,

@@ -152,7 +152,7 @@ uniform sampler2D u_scene;
 out vec4 o_color;
 const vec3 kLuma = vec3(0.299, 0.587, 0.114);
 const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
-const float kMeshCover = 0.2;    // below the ghost's alpha
+const float kMeshCover = 0.998;  // between the uncovered alpha (254 / 255) and 1
 void main() {
   // Unfiltered fetches at texel centres (cheap on a software rasteriser).
   ivec2 p = ivec2(gl_FragCoord.xy);
@@ -166,7 +166,7 @@ void main() {
   float lsw = dot(sw.rgb, kLuma), lse = dot(se.rgb, kLuma);
   float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
   float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
-  // Alpha is the meshes' cover (0 on the background and the grid, already smooth).
+  // Alpha is the meshes' cover (1; 254 / 255 on the background and the grid, already smooth).
   float cover = max(m.a, max(max(nw.a, ne.a), max(sw.a, se.a)));
   if (lmax - lmin < kFlat || cover < kMeshCover) discard;
   o_color = vec4(0.0);
