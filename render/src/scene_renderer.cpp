@@ -36,11 +36,16 @@ constexpr double kLabelAirPx = 4.0;
 constexpr float kGridExtent = 6.0f;
 /// Ring tube radius, segments around the ring and around the tube.
 constexpr double kRingTube = 0.034;
-constexpr int kRingSegments = 72, kRingSides = 8;
+constexpr int kRingSegments = 56, kRingSides = 6;
 /// Translucency of the reference ghost, and how much of its colour is the ghost tint.
 constexpr float kGhostAlpha = 0.36f;
 constexpr float kGhostTint = 0.55f;
 constexpr float kHighlightGlow = 0.45f;
+/// Alpha of the scene's pixels no mesh covers: one step below opaque in 8 bits (see
+/// kEdgeFragment's kMeshCover).
+constexpr float kUncoveredAlpha = 254.0f / 255.0f;
+/// Strength of the key light's highlight on the meshes.
+constexpr float kSpecular = 0.22f;
 
 Eigen::Matrix4f to_gl(const Eigen::Matrix4d& m) {
   return m.cast<float>();
@@ -88,12 +93,24 @@ struct Target {
   gl::Renderbuffer depth;
   int width = 0, height = 0;
   std::string picture;  ///< fingerprint of the scene the target holds (empty: none)
+  /// The smoothed picture (made on first use): its own colour, sharing `depth`, whose
+  /// stencil marks the edges; `mark_fbo` holds `depth` alone, for marking them.
+  gl::Framebuffer smooth_fbo, mark_fbo;
+  gl::Texture smooth;
+  bool smoothed = false;  ///< `smooth` holds the smoothed `picture`
 
   void ensure(int w, int h) {
     if (fbo && w == width && h == height) return;
     width = w;
     height = h;
     picture.clear();
+    smoothed = false;
+    ground_key.clear();
+    ground_fbo = gl::Framebuffer();
+    ground = gl::Texture();
+    smooth_fbo = gl::Framebuffer();
+    mark_fbo = gl::Framebuffer();
+    smooth = gl::Texture();
     fbo = gl::make_framebuffer();
     color = gl::make_texture();
     depth = gl::make_renderbuffer();
@@ -114,11 +131,51 @@ struct Target {
     glBindTexture(GL_TEXTURE_2D, 0);
     gl::check("target allocation");
   }
+
+  /// The background with the ground grid, kept while the camera stays (the body turning
+  /// does not change it) and copied in instead of a clear and the grid's strips.
+  gl::Framebuffer ground_fbo;
+  gl::Texture ground;
+  std::string ground_key;  ///< fingerprint of what `ground` holds (empty: none)
+
+  void ensure_ground() {
+    if (ground_fbo) return;
+    ground = gl::make_texture();
+    glBindTexture(GL_TEXTURE_2D, ground.get());
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
+    glBindTexture(GL_TEXTURE_2D, 0);
+    ground_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, ground_fbo.get());
+    glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, ground.get(), 0);
+    gl::check("ground target allocation");
+  }
+
+  void ensure_smooth() {
+    if (smooth_fbo) return;
+    smooth = gl::make_texture();
+    glBindTexture(GL_TEXTURE_2D, smooth.get());
+    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
+    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
+    glBindTexture(GL_TEXTURE_2D, 0);
+    smooth_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, smooth_fbo.get());
+    glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, smooth.get(), 0);
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
+    mark_fbo = gl::make_framebuffer();
+    glBindFramebuffer(GL_FRAMEBUFFER, mark_fbo.get());
+    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
+    glDrawBuffer(GL_NONE);
+    glReadBuffer(GL_NONE);
+    gl::check("smoothing target allocation");
+  }
 };
 
 /// Uniform locations of the mesh program.
 struct MeshUniforms {
-  GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow;
+  GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow, half, spec;
 };
 
 struct TextVertex {
@@ -152,10 +209,20 @@ struct GridVertex {
 /// cut into short segments so the fade and the near-plane clip stay smooth.
 GpuMesh build_grid() {
   constexpr double kGridMinor = 0.5, kGridMajor = 1.0, kSegment = 3.0;
+  // A segment whose two ends have faded below this alpha is left out (it would change no
+  // pixel by more than one level in 8 bits, but a software rasteriser still shades it).
+  constexpr float kInvisibleAlpha = 0.01f;
+  auto faded = [](const Eigen::Vector2d& p, float alpha) {  // kGridVertex's fade, on the CPU
+    const double t =
+        std::clamp((p.norm() - 0.45 * double(kGridExtent)) / (0.55 * double(kGridExtent)), 0.0, 1.0);
+    return alpha * static_cast<float>(1.0 - t * t * (3.0 - 2.0 * t));
+  };
   constexpr float kMinorHalf = 0.5f, kMajorHalf = 0.7f, kAxisHalf = 1.2f;
   constexpr float kMinorAlpha = 0.22f, kMajorAlpha = 0.45f, kAxisAlpha = 0.85f;
   std::vector<GridVertex> v;
   auto segment = [&](Eigen::Vector2d a, Eigen::Vector2d b, float half, float alpha, float kind) {
+    // The world axes (kind > 0) may be mirrored in the shader: always kept.
+    if (kind < 0.5f && std::max(faded(a, alpha), faded(b, alpha)) < kInvisibleAlpha) return;
     const GridVertex a0{float(a.x()), float(a.y()), float(b.x()), float(b.y()), -1.0f, half, alpha, kind};
     const GridVertex a1{float(a.x()), float(a.y()), float(b.x()), float(b.y()), 1.0f, half, alpha, kind};
     // The far end's offset uses the same direction, so its "other" is the near end and its
@@ -407,7 +474,7 @@ struct SceneRenderer::State {
   std::size_t triangles = 0;
   bool reused = false;  ///< the last draw showed the kept picture of an unchanged scene
 
-  gl::Program mesh_program, grid_program, post_program, text_program;
+  gl::Program mesh_program, grid_program, edge_program, post_program, text_program;
   MeshUniforms mu{};
   gl::VertexArray empty_vao;
   GpuMesh grid, arrow, rod;
@@ -527,6 +594,7 @@ struct SceneRenderer::State {
     glUniform4fv(mu.tint, 1, tint.data());
     glUniform1f(mu.alpha, alpha);
     glUniform4fv(mu.glow, 1, glow.data());
+    glUniform1f(mu.spec, kSpecular * (1.0f - 0.5f * glow.w()));  // a glow mutes the highlight
     glBindVertexArray(m.vao.get());
     glDrawElements(GL_TRIANGLES, m.count, GL_UNSIGNED_INT, nullptr);
     triangles += m.triangles;
@@ -581,7 +649,10 @@ struct SceneRenderer::State {
     }
   }
 
-  void render_scene(const SceneState& st, int w, int h);
+  /// Draws the scene into `t` (its framebuffer bound, viewport set).
+  void render_scene(const SceneState& st, Target& t);
+  /// Makes t.smooth: the scene of `t` with its edges smoothed.
+  void smooth_scene(const SceneState& st, Target& t);
   void collect_labels(const SceneState& st, int w, int h);
   void draw_labels(int w, int h);
 };
@@ -609,7 +680,8 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
           glGetUniformLocation(mp, "u_view_proj"), glGetUniformLocation(mp, "u_eye"),
           glGetUniformLocation(mp, "u_up"),        glGetUniformLocation(mp, "u_key"),
           glGetUniformLocation(mp, "u_fill"),      glGetUniformLocation(mp, "u_tint"),
-          glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow")};
+          glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow"),
+          glGetUniformLocation(mp, "u_half"),      glGetUniformLocation(mp, "u_spec")};
   s.empty_vao = gl::make_vertex_array();
 
   // Unit arrow along +z: shaft to 0.84, cone to 1 (radii scale with the arrow's thickness).
@@ -640,7 +712,8 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   return r;
 }
 
-void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
+void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
+  const int w = t.width, h = t.height;
   view_w = w;
   view_h = h;
   const WorldFrame& world = st.world;
@@ -660,8 +733,70 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   glStencilMask(0xFF);
   glClearDepth(1.0);
   glClearStencil(0);
-  glClearColor(palette.background[0], palette.background[1], palette.background[2], 1.0f);
-  glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  // Alpha marks what the meshes (and the ghost) cover: 1 there, kUncoveredAlpha elsewhere
+  // (the grid keeps it), so the smoothing pass leaves the grid's lines alone. Both show as
+  // opaque when a view lands in a window whose alpha a desktop composites.
+  glClearColor(palette.background[0], palette.background[1], palette.background[2], kUncoveredAlpha);
+  // The ground grid: blended, no depth writes, so the triads and the body stay crisp over it.
+  auto draw_grid = [&] {
+    glEnable(GL_BLEND);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ZERO, GL_ONE);
+    glDepthMask(GL_FALSE);
+    const GLuint gp = grid_program.get();
+    glUseProgram(gp);
+    Eigen::Vector3d e1, e2;
+    ground_axes(world, &e1, &e2);
+    const Eigen::Vector3f o = ground_centre(st).cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
+    glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
+    glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
+    glUniform2f(glGetUniformLocation(gp, "u_viewport"), static_cast<float>(w), static_cast<float>(h));
+    glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
+    glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
+    glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
+    glUniform1f(glGetUniformLocation(gp, "u_foot"), static_cast<float>(kWorldTriadOffset));
+    glUniform1f(glGetUniformLocation(gp, "u_y_flip"), e2.y() < 0.0 ? 1.0f : 0.0f);
+    glBindVertexArray(grid.vao.get());
+    glDrawArrays(GL_TRIANGLES, 0, grid.count);
+    triangles += grid.triangles;
+    glDepthMask(GL_TRUE);
+    glDisable(GL_BLEND);
+  };
+  // Seen from above, everything drawn stands on or over the ground, so the grid can go
+  // first, into the view's kept ground picture (drawn again only when the camera, size or
+  // palette change); seen from below it is drawn after the meshes, over what it hides.
+  const bool ground_first = st.show_grid && (eye - ground_centre(st)).dot(up) > 0.0;
+  if (ground_first) {
+    Fingerprint key;
+    const Camera& c = st.camera;
+    key.add(c.target);
+    for (double v : {c.azimuth_rad, c.elevation_rad, c.distance, c.fov_y_rad, c.near_plane, c.far_plane})
+      key.add(v);
+    key.add(world.up);
+    key.add(ground_centre(st));
+    key.add(static_cast<double>(w));
+    key.add(static_cast<double>(h));
+    for (const auto* colour : {&palette.background, &palette.grid, &palette.axis_x, &palette.axis_y})
+      for (float v : *colour) key.add(static_cast<double>(v));
+    if (t.ground_key != key.bytes()) {
+      t.ensure_ground();
+      glBindFramebuffer(GL_FRAMEBUFFER, t.ground_fbo.get());
+      glClear(GL_COLOR_BUFFER_BIT);
+      draw_grid();
+      t.ground_key = key.bytes();
+    } else {
+      triangles += grid.triangles;
+    }
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, t.ground_fbo.get());
+    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.fbo.get());
+    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
+    glClear(GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  } else {
+    glClear(GL_COLOR_BUFFER_BIT | GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
+  }
 
   const Eigen::Vector3d ground = world_triad_origin(st);
   glEnable(GL_DEPTH_TEST);
@@ -680,6 +815,8 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
       (pose.world_R_view * Eigen::Vector3d(0.7, -0.25, 0.45).normalized()).cast<float>();
   glUniform3fv(mu.key, 1, key.data());
   glUniform3fv(mu.fill, 1, fill.data());
+  const Eigen::Vector3f half = (key + pose.world_R_view.col(2).cast<float>()).normalized();
+  glUniform3fv(mu.half, 1, half.data());
   const Eigen::Vector4f no_tint(0, 0, 0, 0), no_glow(0, 0, 0, 0);
   const Eigen::Vector3f hl = vec(palette.highlight);
   const Eigen::Vector4f glow(hl.x(), hl.y(), hl.z(), kHighlightGlow);
@@ -751,33 +888,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
   }
   gl::check("opaque pass");
 
-  // Ground grid (blended, no depth writes so the triad and the body stay crisp over it).
-  if (st.show_grid) {
-    glEnable(GL_BLEND);
-    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
-    glDepthMask(GL_FALSE);
-    const GLuint gp = grid_program.get();
-    glUseProgram(gp);
-    Eigen::Vector3d e1, e2;
-    ground_axes(world, &e1, &e2);
-    const Eigen::Vector3f o = ground_centre(st).cast<float>(), e1f = e1.cast<float>(), e2f = e2.cast<float>();
-    glUniform3fv(glGetUniformLocation(gp, "u_origin"), 1, o.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_e1"), 1, e1f.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_e2"), 1, e2f.data());
-    glUniformMatrix4fv(glGetUniformLocation(gp, "u_view_proj"), 1, GL_FALSE, view_proj.data());
-    glUniform2f(glGetUniformLocation(gp, "u_viewport"), static_cast<float>(w), static_cast<float>(h));
-    glUniform3fv(glGetUniformLocation(gp, "u_color"), 1, palette.grid.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_x_color"), 1, palette.axis_x.data());
-    glUniform3fv(glGetUniformLocation(gp, "u_y_color"), 1, palette.axis_y.data());
-    glUniform1f(glGetUniformLocation(gp, "u_extent"), kGridExtent);
-    glUniform1f(glGetUniformLocation(gp, "u_foot"), static_cast<float>(kWorldTriadOffset));
-    glUniform1f(glGetUniformLocation(gp, "u_y_flip"), e2.y() < 0.0 ? 1.0f : 0.0f);
-    glBindVertexArray(grid.vao.get());
-    glDrawArrays(GL_TRIANGLES, 0, grid.count);
-    triangles += grid.triangles;
-    glDepthMask(GL_TRUE);
-    glDisable(GL_BLEND);
-  }
+  if (st.show_grid && !ground_first) draw_grid();
 
   // Reference ghost: a depth-only pass first, so only its nearest surface is blended (a
   // clean single layer instead of overlapping translucent shells).
@@ -791,7 +902,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, int w, int h) {
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f, no_glow);
     glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
     glEnable(GL_BLEND);
-    glBlendFunc(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA);
+    glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ONE);  // alpha: covered
     glDepthMask(GL_FALSE);
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(),
               Eigen::Vector4f(gc.x(), gc.y(), gc.z(), kGhostTint), kGhostAlpha,
@@ -905,6 +1016,75 @@ void SceneRenderer::State::draw_labels(int w, int h) {
   gl::check("labels");
 }
 
+void SceneRenderer::State::smooth_scene(const SceneState& st, Target& t) {
+  const int w = t.width, h = t.height;
+  t.ensure_smooth();
+  // The smoothed picture starts as a copy of the scene (rows, no shading).
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
+  glDisable(GL_SCISSOR_TEST);
+  glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+  t.smoothed = true;
+  // Smooth only the pixels the meshes can cover: the background and the grid are smooth
+  // already (the grid's lines are antialiased analytically), and on a software rasteriser
+  // every post-processed pixel costs.
+  std::vector<Eigen::Vector3d> extra = chain_points(st);
+  for (const PlacedModel& p : st.props) {
+    const Eigen::AlignedBox3d b = model_box(ModelChoice{p.kind, false});
+    for (int c = 0; c < 8; ++c)
+      extra.push_back(p.offset + p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
+  }
+  const std::vector<PixelBox> boxes = mesh_pixel_bounds(st, model_box(st.model), w, h, extra);
+  if (boxes.empty()) return;
+  if (!edge_program) {  // made on first use, like the text program
+    auto edge_p = gl::make_program("edge", detail::kFullscreenVertex, detail::kEdgeFragment);
+    if (!edge_p) {
+      warnings.push_back(edge_p.error().describe());
+      return;
+    }
+    edge_program = std::move(edge_p.value());
+  }
+  glViewport(0, 0, w, h);
+  glDisable(GL_DEPTH_TEST);
+  glDisable(GL_BLEND);
+  glEnable(GL_SCISSOR_TEST);
+  glEnable(GL_STENCIL_TEST);
+  glActiveTexture(GL_TEXTURE0);
+  glBindTexture(GL_TEXTURE_2D, t.color.get());
+  glBindVertexArray(empty_vao.get());
+  auto cover_boxes = [&] {
+    for (const PixelBox& box : boxes) {
+      glScissor(box.x, h - box.y - box.height, box.width, box.height);
+      glDrawArrays(GL_TRIANGLES, 0, 3);
+    }
+  };
+  // Mark the edge pixels in the stencil (the scene pass cleared it and does not use it).
+  glBindFramebuffer(GL_FRAMEBUFFER, t.mark_fbo.get());
+  const GLuint ep = edge_program.get();
+  glUseProgram(ep);
+  glUniform1i(glGetUniformLocation(ep, "u_scene"), 0);
+  glStencilMask(0xFF);
+  glStencilFunc(GL_ALWAYS, 1, 0xFF);
+  glStencilOp(GL_KEEP, GL_KEEP, GL_REPLACE);
+  cover_boxes();
+  // Blend them, under an early stencil test: unmarked blocks of pixels are not shaded.
+  glBindFramebuffer(GL_FRAMEBUFFER, t.smooth_fbo.get());
+  const GLuint pp = post_program.get();
+  glUseProgram(pp);
+  glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
+  glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
+              1.0f / static_cast<float>(h));
+  glStencilMask(0x00);
+  glStencilFunc(GL_EQUAL, 1, 0xFF);
+  glStencilOp(GL_KEEP, GL_KEEP, GL_KEEP);
+  cover_boxes();
+  glStencilMask(0xFF);
+  glDisable(GL_STENCIL_TEST);
+  glDisable(GL_SCISSOR_TEST);
+  glBindTexture(GL_TEXTURE_2D, 0);
+  gl::check("smoothing pass");
+}
+
 void SceneRenderer::draw(const SceneState& state, const Region& region) {
   State& s = *state_;
   if (region.width <= 0 || region.height <= 0) return;
@@ -928,13 +1108,19 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   if (!s.reused) {
     glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
     glViewport(0, 0, w, h);
-    s.render_scene(state, w, h);
+    s.render_scene(state, t);
     t.picture = std::move(picture);
+    t.smoothed = false;
+  }
+  GLuint shown = t.fbo.get();
+  if (s.options.antialiasing == Antialiasing::Post) {
+    if (!t.smoothed) s.smooth_scene(state, t);
+    shown = t.smooth_fbo.get();
   }
 
-  // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the
-  // smoothing pass over the part the meshes can cover, then the labels on top (unsmoothed).
-  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+  // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the labels
+  // on top (unsmoothed).
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, shown);
   glBindFramebuffer(GL_DRAW_FRAMEBUFFER, dest);
   glDisable(GL_SCISSOR_TEST);
   glBlitFramebuffer(0, 0, w, h, gl_x, gl_y, gl_x + w, gl_y + h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
@@ -942,37 +1128,6 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   glEnable(GL_SCISSOR_TEST);
   glScissor(gl_x, gl_y, w, h);
   glDisable(GL_DEPTH_TEST);
-  if (s.options.antialiasing == Antialiasing::Post) {
-    // Smooth only the pixels the meshes can cover: the background and the grid are smooth
-    // already (the grid's lines are antialiased analytically), and on a software rasteriser
-    // every post-processed pixel costs.
-    std::vector<Eigen::Vector3d> extra = chain_points(state);
-    for (const PlacedModel& p : state.props) {
-      const Eigen::AlignedBox3d b = s.model_box(ModelChoice{p.kind, false});
-      for (int c = 0; c < 8; ++c)
-        extra.push_back(p.offset +
-                        p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
-    }
-    const std::vector<PixelBox> boxes = mesh_pixel_bounds(state, s.model_box(state.model), w, h, extra);
-    if (!boxes.empty()) {
-      const GLuint pp = s.post_program.get();
-      glUseProgram(pp);
-      glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
-      glUniform2f(glGetUniformLocation(pp, "u_origin"), static_cast<float>(gl_x), static_cast<float>(gl_y));
-      glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
-                  1.0f / static_cast<float>(h));
-      glActiveTexture(GL_TEXTURE0);
-      glBindTexture(GL_TEXTURE_2D, t.color.get());
-      glBindVertexArray(s.empty_vao.get());
-      for (const PixelBox& box : boxes) {
-        glScissor(gl_x + box.x, gl_y + (h - box.y - box.height), box.width, box.height);
-        glDrawArrays(GL_TRIANGLES, 0, 3);
-      }
-      glBindTexture(GL_TEXTURE_2D, 0);
-      glScissor(gl_x, gl_y, w, h);
-      gl::check("post pass");
-    }
-  }
   if (!s.labels_on_cpu) s.draw_labels(w, h);
   // Leave GL as the caller's drawing expects it.
   glDisable(GL_SCISSOR_TEST);

@@ -5,6 +5,12 @@ namespace attiscope::render::detail {
 
 // Lit meshes: a key light from the viewer's upper left, a weak fill from the right, a
 // hemisphere ambient around world up, a small specular, and a rim glow for highlights.
+// The diffuse, ambient and glow terms are worked out per vertex (our models are flat faces
+// and smooth tubes, where that equals the per-pixel result across a face); only the
+// specular stays per pixel, with the view direction of the camera's axis (u_half is the
+// key light's half vector with it) and the power by squaring. On a software rasteriser every
+// instruction of the fragment shader runs for every covered pixel while the vertex shader
+// runs a few thousand times a frame.
 inline const char* kMeshVertex = R"(#version 330 core
 layout(location = 0) in vec3 a_pos;
 layout(location = 1) in vec3 a_normal;
@@ -12,45 +18,47 @@ layout(location = 2) in vec4 a_color;
 uniform mat4 u_model;
 uniform mat3 u_normal_matrix;
 uniform mat4 u_view_proj;
-out vec3 v_pos;
-out vec3 v_normal;
-out vec4 v_color;
-void main() {
-  vec4 w = u_model * vec4(a_pos, 1.0);
-  v_pos = w.xyz;
-  v_normal = u_normal_matrix * a_normal;
-  v_color = a_color;
-  gl_Position = u_view_proj * w;
-}
-)";
-
-inline const char* kMeshFragment = R"(#version 330 core
-in vec3 v_pos;
-in vec3 v_normal;
-in vec4 v_color;
 uniform vec3 u_eye;
 uniform vec3 u_up;
 uniform vec3 u_key;
 uniform vec3 u_fill;
 uniform vec4 u_tint;        // rgb, and how much it replaces the vertex colour
-uniform float u_alpha;
 uniform vec4 u_glow;        // rgb, amount
-out vec4 o_color;
+out vec3 v_color;
+out vec3 v_normal;
 void main() {
-  vec3 n = normalize(v_normal);
-  vec3 v = normalize(u_eye - v_pos);
+  vec4 w = u_model * vec4(a_pos, 1.0);
+  vec3 n = normalize(u_normal_matrix * a_normal);
+  vec3 v = normalize(u_eye - w.xyz);
   if (dot(n, v) < 0.0) n = -n;  // two-sided: thin parts and open shells
-  vec3 base = mix(v_color.rgb, u_tint.rgb, u_tint.a);
+  vec3 base = mix(a_color.rgb, u_tint.rgb, u_tint.a);
   float hemi = 0.5 + 0.5 * dot(n, u_up);
   vec3 ambient = mix(vec3(0.34, 0.34, 0.37), vec3(0.52, 0.52, 0.54), hemi);
   float key = max(dot(n, u_key), 0.0);
   float fill = max(dot(n, u_fill), 0.0);
-  vec3 h = normalize(u_key + v);
-  float spec = pow(max(dot(n, h), 0.0), 40.0) * 0.22;
-  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill) + vec3(spec);
+  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill);
   float rim = pow(1.0 - max(dot(n, v), 0.0), 2.0);
-  c = mix(c, u_glow.rgb, u_glow.a * (0.35 + 0.65 * rim));
-  o_color = vec4(c, u_alpha);
+  v_color = mix(c, u_glow.rgb, u_glow.a * (0.35 + 0.65 * rim));
+  v_normal = n;
+  gl_Position = u_view_proj * w;
+}
+)";
+
+inline const char* kMeshFragment = R"(#version 330 core
+in vec3 v_color;
+in vec3 v_normal;
+uniform vec3 u_half;
+uniform float u_alpha;
+uniform float u_spec;       // 0 under a highlight's glow
+out vec4 o_color;
+void main() {
+  float s = max(dot(normalize(v_normal), u_half), 0.0);
+  s *= s;  // s^2
+  s *= s;  // s^4
+  float s8 = s * s;
+  s = s8 * s8;  // s^16
+  s = s * s * s8;  // s^40
+  o_color = vec4(v_color + vec3(u_spec * s), u_alpha);
 }
 )";
 
@@ -103,11 +111,15 @@ void main() {
   vec2 d = s1 - s0;
   d = length(d) > 1e-6 ? normalize(d) : vec2(1.0, 0.0);
   float half_w = a_style.y;
-  float reach = half_w + 1.0;  // one more pixel for the falloff
+  float reach = half_w + 0.5;  // where the fragment shader's coverage reaches 0
   vec2 offset = vec2(-d.y, d.x) * a_style.x * reach;
   gl_Position = c0 + vec4(offset / (0.5 * u_viewport) * c0.w, 0.0, 0.0);
   if (c0.w < kNearW) gl_Position = vec4(2.0, 2.0, 2.0, 1.0);  // both ends behind the eye
-  v_dist = a_style.x * reach;
+  // The offset's side is relative to this end's own direction, which is reversed at the far
+  // end; the distance is measured to one side of the segment (from its lexicographically
+  // smaller end), so it interpolates across the strip the same way from both ends.
+  bool from_first = a_uv.x < a_other.x || (a_uv.x == a_other.x && a_uv.y < a_other.y);
+  v_dist = a_style.x * reach * (from_first ? 1.0 : -1.0);
   v_half = half_w;
   float fade = 1.0 - smoothstep(0.45 * u_extent, u_extent, length(uv));
   vec3 col = a_kind < 0.5 ? u_color : (a_kind < 1.5 ? u_x_color : u_y_color);
@@ -126,34 +138,56 @@ void main() {
 }
 )";
 
-// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper): find the local edge
-// direction from the luma of the four diagonal neighbours and blend two taps along it (the
-// paper's narrow blend; its wider four-tap blend doubled this pass's cost on llvmpipe, which
-// runs both sides of a branch, for a barely visible gain on our flat-shaded models). Flat
-// pixels are discarded: the picture under them is already the scene's.
+// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper), in two passes so
+// that a software rasteriser shades only the edges. llvmpipe runs both sides of a branch
+// and a discard does not end the shader early, but it does skip a block of pixels whose
+// early stencil test fails: so the first pass (kEdgeFragment) only looks for edges, by the
+// luma range of a pixel and its four diagonal neighbours, and marks them in the stencil
+// (flat pixels are discarded); the second (kPostFragment) runs under a stencil test on the
+// marked pixels, finds the local edge direction from the four diagonals and blends two taps
+// along it (the paper's narrow blend; its wider four-tap blend doubled the pass's cost for a
+// barely visible gain on our flat-shaded models). Both read the unsmoothed scene.
+inline const char* kEdgeFragment = R"(#version 330 core
+uniform sampler2D u_scene;
+out vec4 o_color;
+const vec3 kLuma = vec3(0.299, 0.587, 0.114);
+const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
+const float kMeshCover = 0.998;  // between the uncovered alpha (254 / 255) and 1
+void main() {
+  // Unfiltered fetches at texel centres (cheap on a software rasteriser).
+  ivec2 p = ivec2(gl_FragCoord.xy);
+  ivec2 hi = textureSize(u_scene, 0) - 1;
+  vec4 m = texelFetch(u_scene, p, 0);
+  vec4 nw = texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0);
+  vec4 ne = texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0);
+  vec4 sw = texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0);
+  vec4 se = texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0);
+  float lm = dot(m.rgb, kLuma), lnw = dot(nw.rgb, kLuma), lne = dot(ne.rgb, kLuma);
+  float lsw = dot(sw.rgb, kLuma), lse = dot(se.rgb, kLuma);
+  float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
+  float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
+  // Alpha is the meshes' cover (1; 254 / 255 on the background and the grid, already smooth).
+  float cover = max(m.a, max(max(nw.a, ne.a), max(sw.a, se.a)));
+  if (lmax - lmin < kFlat || cover < kMeshCover) discard;
+  o_color = vec4(0.0);
+}
+)";
+
 inline const char* kPostFragment = R"(#version 330 core
 uniform sampler2D u_scene;
-uniform vec2 u_origin;   // window pixel of the region's lower-left corner
 uniform vec2 u_texel;    // 1 / size
 out vec4 o_color;
 const vec3 kLuma = vec3(0.299, 0.587, 0.114);
 const float kReduceMin = 1.0 / 128.0;
 const float kReduceMul = 1.0 / 8.0;
 const float kSpanMax = 8.0;
-const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
 void main() {
-  // The five taps at texel centres are unfiltered fetches (cheap on a software rasteriser).
-  ivec2 p = ivec2(gl_FragCoord.xy - u_origin);
+  ivec2 p = ivec2(gl_FragCoord.xy);
   ivec2 hi = textureSize(u_scene, 0) - 1;
-  vec3 m = texelFetch(u_scene, p, 0).rgb;
-  vec3 nw = texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0).rgb;
-  vec3 ne = texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0).rgb;
-  vec3 sw = texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0).rgb;
-  vec3 se = texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0).rgb;
-  float lm = dot(m, kLuma), lnw = dot(nw, kLuma), lne = dot(ne, kLuma), lsw = dot(sw, kLuma), lse = dot(se, kLuma);
-  float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
-  float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
-  if (lmax - lmin < kFlat) discard;
+  float lnw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0).rgb, kLuma);
+  float lne = dot(texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0).rgb, kLuma);
+  float lsw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0).rgb, kLuma);
+  float lse = dot(texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0).rgb, kLuma);
   vec2 uv = (vec2(p) + 0.5) * u_texel;
   vec2 dir = vec2(-((lnw + lne) - (lsw + lse)), (lnw + lsw) - (lne + lse));
   float reduce = max((lnw + lne + lsw + lse) * 0.25 * kReduceMul, kReduceMin);

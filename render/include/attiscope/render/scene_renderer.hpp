@@ -9,9 +9,10 @@
 //  - draw(): into a region of the framebuffer bound now (the window's). The scene is drawn
 //    into an offscreen target of the region's size (one whole-buffer clear, which llvmpipe
 //    does at memory speed, where a scissored clear or a background quad is shaded pixel by
-//    pixel), copied into the region by a blit (a row copy, no shading, no blending, unlike
-//    an ImGui::Image quad), then smoothed and labelled in place. An unchanged scene is not
-//    drawn again (RendererOptions::reuse_unchanged);
+//    pixel), smoothed offscreen (edges marked in the stencil, then blended under an early
+//    stencil test, so only edge pixels are shaded), copied into the region by a blit (a
+//    row copy, no shading, no blending, unlike an ImGui::Image quad) and labelled in place.
+//    An unchanged scene is neither drawn nor smoothed again (RendererOptions::reuse_unchanged);
 //  - render_image(): the same into its own export target, read back.
 #pragma once
 
@@ -43,8 +44,9 @@ enum class Antialiasing {
 
 struct RendererOptions {
   Antialiasing antialiasing = Antialiasing::Post;
-  /// Keep each view's offscreen scene and show it again when the next draw of that size has
-  /// the same pose, camera, overlays and palette (only the smoothing and labels are redone).
+  /// Keep each view's offscreen scene (and its smoothed copy) and show it again when the next
+  /// draw of that size has the same pose, camera, overlays and palette (only the labels are
+  /// redone).
   bool reuse_unchanged = true;
 };
 
