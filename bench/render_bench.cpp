@@ -7,7 +7,7 @@
 // several variants while the body turns a little every frame, the same view when nothing
 // changed (the kept scene is shown again), and the readback + PNG encode of a 1024x768
 // picture. The whole-process
-// time of `attiscope render` is measured by scripts/bench-render.sh.
+// time of `attiscope render` is measured by bench/render_process.py.
 #define GL_GLEXT_PROTOTYPES 1
 #include <GL/glcorearb.h>
 
@@ -149,7 +149,7 @@ int main(int argc, char** argv) {
       (void)write_png((std::filesystem::temp_directory_path() / "attiscope_render_bench.png").string(), img);
     });
     std::printf(
-        "PNG encode 1024x768 (libpng, zlib level %d)       median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms\n",
+        "PNG encode 1024x768 (libdeflate level %d)          median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms\n",
         kPngCompressionLevel, p.median_ms, p.p90_ms, p.cpu_median_ms);
   }
   return 0;
