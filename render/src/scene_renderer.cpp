@@ -58,6 +58,22 @@ struct GpuMesh {
   std::size_t triangles = 0;
 };
 
+/// A w x h colour texture stored as BGRA: given BGRA data Mesa stores it so, the layout of an
+/// X window's back buffer, so the blit of a view into the window is a row copy; from an RGBA
+/// texture it is a shaded quad (measured with callgrind: more instructions than the whole
+/// view). Clamped at the edges, filtered as asked.
+gl::Texture make_bgra_texture(int w, int h, GLint filter) {
+  gl::Texture t = gl::make_texture();
+  glBindTexture(GL_TEXTURE_2D, t.get());
+  glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, w, h, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, filter);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, filter);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_S, GL_CLAMP_TO_EDGE);
+  glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_T, GL_CLAMP_TO_EDGE);
+  glBindTexture(GL_TEXTURE_2D, 0);
+  return t;
+}
+
 GpuMesh upload(const Mesh& mesh) {
   GpuMesh g;
   g.vao = gl::make_vertex_array();
@@ -112,23 +128,13 @@ struct Target {
     mark_fbo = gl::Framebuffer();
     smooth = gl::Texture();
     fbo = gl::make_framebuffer();
-    color = gl::make_texture();
+    color = make_bgra_texture(w, h, GL_LINEAR);
     depth = gl::make_renderbuffer();
-    glBindTexture(GL_TEXTURE_2D, color.get());
-    // Given BGRA data Mesa stores the texture as BGRA, the layout of an X window's back
-    // buffer, so the blit of a view into the window is a row copy; from an RGBA texture it
-    // is a shaded quad (measured with callgrind: more instructions than the whole view).
-    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, w, h, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_LINEAR);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_LINEAR);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_S, GL_CLAMP_TO_EDGE);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_WRAP_T, GL_CLAMP_TO_EDGE);
     glBindRenderbuffer(GL_RENDERBUFFER, depth.get());
     glRenderbufferStorage(GL_RENDERBUFFER, GL_DEPTH24_STENCIL8, w, h);
     glBindFramebuffer(GL_FRAMEBUFFER, fbo.get());
     glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, color.get(), 0);
     glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
-    glBindTexture(GL_TEXTURE_2D, 0);
     gl::check("target allocation");
   }
 
@@ -140,12 +146,7 @@ struct Target {
 
   void ensure_ground() {
     if (ground_fbo) return;
-    ground = gl::make_texture();
-    glBindTexture(GL_TEXTURE_2D, ground.get());
-    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
-    glBindTexture(GL_TEXTURE_2D, 0);
+    ground = make_bgra_texture(width, height, GL_NEAREST);
     ground_fbo = gl::make_framebuffer();
     glBindFramebuffer(GL_FRAMEBUFFER, ground_fbo.get());
     glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, ground.get(), 0);
@@ -154,12 +155,7 @@ struct Target {
 
   void ensure_smooth() {
     if (smooth_fbo) return;
-    smooth = gl::make_texture();
-    glBindTexture(GL_TEXTURE_2D, smooth.get());
-    glTexImage2D(GL_TEXTURE_2D, 0, GL_RGBA8, width, height, 0, GL_BGRA, GL_UNSIGNED_BYTE, nullptr);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MIN_FILTER, GL_NEAREST);
-    glTexParameteri(GL_TEXTURE_2D, GL_TEXTURE_MAG_FILTER, GL_NEAREST);
-    glBindTexture(GL_TEXTURE_2D, 0);
+    smooth = make_bgra_texture(width, height, GL_NEAREST);
     smooth_fbo = gl::make_framebuffer();
     glBindFramebuffer(GL_FRAMEBUFFER, smooth_fbo.get());
     glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, smooth.get(), 0);

@@ -16,6 +16,7 @@
 #include "attiscope/core/track_analysis.hpp"
 #include "support/check.hpp"
 #include "support/cli_run.hpp"
+#include "support/scratch_dir.hpp"
 #include "support/track_gen.hpp"
 
 namespace attiscope {
@@ -30,23 +31,10 @@ test::CliRun RunTrack(const std::vector<std::string>& args) {
 }
 
 // A scratch directory per test, removed afterwards.
-class TrackCliTest : public ::testing::Test {
+class TrackCliTest : public test::ScratchDirTest {
  protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() / ("attiscope_track_cli_" + std::to_string(::getpid()) + "_" +
-                                        ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  std::string Path(const std::string& name) const { return (dir_ / name).string(); }
-  fs::path dir_;
+  TrackCliTest() : ScratchDirTest("attiscope_track_cli_") {}
 };
-
-std::string Num(double v) {
-  char buf[40];
-  std::snprintf(buf, sizeof buf, "%.17g", v);
-  return buf;
-}
 
 // Writes t as "t,qw,qx,qy,qz" rows; `extra` lines are inserted after the given sample
 // index. Returns the 1-based file line of each inserted line.
@@ -57,8 +45,9 @@ std::vector<std::size_t> WriteCsv(const std::string& path, const Track& t,
   std::size_t line = 1;
   std::vector<std::size_t> lines;
   for (std::size_t i = 0; i < t.size(); ++i) {
-    f << Num(t.time_s[i]) << ',' << Num(t.qw[i]) << ',' << Num(t.qx[i]) << ',' << Num(t.qy[i]) << ','
-      << Num(t.qz[i]) << '\n';
+    f << test::FullPrecision(t.time_s[i]) << ',' << test::FullPrecision(t.qw[i]) << ','
+      << test::FullPrecision(t.qx[i]) << ',' << test::FullPrecision(t.qy[i]) << ','
+      << test::FullPrecision(t.qz[i]) << '\n';
     ++line;
     for (const auto& [after, text] : extra) {
       if (after == i) {
@@ -165,8 +154,9 @@ TEST_F(TrackCliTest, JsonLinesLogGivesTheSameEventsAndNamesItsBadLines) {
   test::ScaleSamples(&t, 300, t.size(), -1.0);  // a sign flip at sample 300
   std::ofstream f(Path("log.jsonl"));
   for (std::size_t i = 0; i < t.size(); ++i) {
-    f << "{\"time_s\": " << Num(t.time_s[i]) << ", \"q\": {\"w\": " << Num(t.qw[i])
-      << ", \"x\": " << Num(t.qx[i]) << ", \"y\": " << Num(t.qy[i]) << ", \"z\": " << Num(t.qz[i])
+    f << "{\"time_s\": " << test::FullPrecision(t.time_s[i])
+      << ", \"q\": {\"w\": " << test::FullPrecision(t.qw[i]) << ", \"x\": " << test::FullPrecision(t.qx[i])
+      << ", \"y\": " << test::FullPrecision(t.qy[i]) << ", \"z\": " << test::FullPrecision(t.qz[i])
       << "}, \"mode\": \"auto\"}\n";
     if (i == 100) f << "{\"time_s\": 2.01, \"q\": {\"w\": 1}\n";  // file line 102: cut short
   }

@@ -16,6 +16,8 @@
 #include "attiscope/core/columns.hpp"
 #include "support/check.hpp"
 #include "support/cli_run.hpp"
+#include "support/scratch_dir.hpp"
+#include "support/track_gen.hpp"
 
 namespace attiscope {
 namespace {
@@ -23,23 +25,11 @@ namespace {
 namespace fs = std::filesystem;
 constexpr double kPi = 3.14159265358979323846;
 
-class TrackEulerCliTest : public ::testing::Test {
+// A scratch directory per test, removed afterwards.
+class TrackEulerCliTest : public test::ScratchDirTest {
  protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() / ("attiscope_track_euler_" + std::to_string(::getpid()) + "_" +
-                                        ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  std::string Path(const std::string& name) const { return (dir_ / name).string(); }
-  fs::path dir_;
+  TrackEulerCliTest() : ScratchDirTest("attiscope_track_euler_") {}
 };
-
-std::string Num(double v) {
-  char buf[40];
-  std::snprintf(buf, sizeof buf, "%.17g", v);
-  return buf;
-}
 
 // roll, pitch, yaw in degrees from the fixed seed.
 std::vector<Eigen::Vector3d> Angles(std::size_t n) {
@@ -54,8 +44,8 @@ void WriteLog(const std::string& path, const std::string& header, const std::vec
   std::ofstream f(path);
   f << header << "\n";
   for (std::size_t i = 0; i < a.size(); ++i)
-    f << Num(0.05 * static_cast<double>(i)) << ',' << Num(a[i](0)) << ',' << Num(a[i](1)) << ','
-      << Num(a[i](2)) << '\n';
+    f << test::FullPrecision(0.05 * static_cast<double>(i)) << ',' << test::FullPrecision(a[i](0)) << ','
+      << test::FullPrecision(a[i](1)) << ',' << test::FullPrecision(a[i](2)) << '\n';
 }
 
 // Rz(c) Ry(b) Rx(a) for (roll a, pitch b, yaw c) in degrees: intrinsic ZYX, the common

@@ -16,6 +16,7 @@
 #include "attiscope/core/convention_file.hpp"
 #include "attiscope/core/intake.hpp"
 #include "support/check.hpp"
+#include "support/track_gen.hpp"
 
 namespace attiscope {
 namespace {
@@ -25,12 +26,6 @@ constexpr double kPi = 3.14159265358979323846;
 struct Pose {
   double roll, pitch, yaw;  // radians
 };
-
-std::string Num(double v) {
-  char buf[40];
-  std::snprintf(buf, sizeof buf, "%.17g", v);
-  return buf;
-}
 
 // Known poses: a few at the edges (zero, a half turn of yaw, pitch near +/-90 degrees,
 // negative angles) and random ones from the fixed seed.
@@ -60,8 +55,8 @@ std::string Csv(const std::vector<Pose>& poses, const std::string& header, bool 
   const double k = degrees ? 180.0 / kPi : 1.0;
   std::string s = header + "\n";
   for (std::size_t i = 0; i < poses.size(); ++i) {
-    s += Num(0.01 * static_cast<double>(i)) + "," + Num(poses[i].roll * k) + "," + Num(poses[i].pitch * k) +
-         "," + Num(poses[i].yaw * k) + "\n";
+    s += test::FullPrecision(0.01 * static_cast<double>(i)) + "," + test::FullPrecision(poses[i].roll * k) +
+         "," + test::FullPrecision(poses[i].pitch * k) + "," + test::FullPrecision(poses[i].yaw * k) + "\n";
   }
   return s;
 }
@@ -163,7 +158,8 @@ TEST(EulerColumnsTest, HouseNamedAngles) {
   for (int i = 0; i < 30; ++i) {
     const Eigen::Vector3d v(a(rng), b(rng), a(rng));
     angles_deg.push_back(v);
-    text += std::to_string(i) + "," + Num(v(2)) + "," + Num(v(1)) + "," + Num(v(0)) + "\n";
+    text += std::to_string(i) + "," + test::FullPrecision(v(2)) + "," + test::FullPrecision(v(1)) + "," +
+            test::FullPrecision(v(0)) + "\n";
   }
   auto m = find_columns(text, prefs);
   ASSERT_TRUE(m.ok()) << m.error().describe();
@@ -221,13 +217,15 @@ TEST(EulerColumnsTest, JsonLines) {
   for (std::size_t i = 0; i < poses.size(); ++i) {
     // Keys nested and in another order on odd lines.
     if (i % 2 == 0) {
-      text += "{\"t\": " + Num(0.1 * static_cast<double>(i)) +
-              ", \"attitude\": {\"roll_rad\": " + Num(poses[i].roll) +
-              ", \"pitch_rad\": " + Num(poses[i].pitch) + ", \"yaw_rad\": " + Num(poses[i].yaw) + "}}\n";
+      text += "{\"t\": " + test::FullPrecision(0.1 * static_cast<double>(i)) +
+              ", \"attitude\": {\"roll_rad\": " + test::FullPrecision(poses[i].roll) +
+              ", \"pitch_rad\": " + test::FullPrecision(poses[i].pitch) +
+              ", \"yaw_rad\": " + test::FullPrecision(poses[i].yaw) + "}}\n";
     } else {
-      text += "{\"attitude\": {\"yaw_rad\": " + Num(poses[i].yaw) + ", \"roll_rad\": " + Num(poses[i].roll) +
-              ", \"pitch_rad\": " + Num(poses[i].pitch) + "}, \"t\": " + Num(0.1 * static_cast<double>(i)) +
-              "}\n";
+      text += "{\"attitude\": {\"yaw_rad\": " + test::FullPrecision(poses[i].yaw) +
+              ", \"roll_rad\": " + test::FullPrecision(poses[i].roll) +
+              ", \"pitch_rad\": " + test::FullPrecision(poses[i].pitch) +
+              "}, \"t\": " + test::FullPrecision(0.1 * static_cast<double>(i)) + "}\n";
     }
   }
   text += "{\"t\": 99, \"attitude\": {\"roll_rad\": 1, \"pitch_rad\": 2}}\n";
@@ -249,7 +247,8 @@ TEST(EulerColumnsTest, TwoThreadReadIsTheSameAsOnePass) {
   const auto poses = Poses();
   std::string block;
   for (const Pose& p : poses) {
-    block += Num(p.roll * 180 / kPi) + "," + Num(p.pitch * 180 / kPi) + "," + Num(p.yaw * 180 / kPi) + "\n";
+    block += test::FullPrecision(p.roll * 180 / kPi) + "," + test::FullPrecision(p.pitch * 180 / kPi) + "," +
+             test::FullPrecision(p.yaw * 180 / kPi) + "\n";
   }
   block += "1,2,nan\n";
   std::string text = "roll_deg,pitch_deg,yaw_deg\n";

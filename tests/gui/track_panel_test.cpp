@@ -28,12 +28,6 @@ namespace {
 /// Poses put into the document from a log written with 17 digits match the generated ones.
 constexpr double kFromLog = 1e-12;
 
-std::string Num(double v) {
-  char buf[40];
-  std::snprintf(buf, sizeof buf, "%.17g", v);
-  return buf;
-}
-
 Rotation SampleRotation(const Track& t, std::size_t i) {
   return Rotation(Eigen::Quaterniond(t.qw[i], t.qx[i], t.qy[i], t.qz[i]));
 }
@@ -60,8 +54,9 @@ class TrackPanelTest : public test::WindowFixture {
     std::ofstream f(path(name));
     f << "t,qw,qx,qy,qz\n";
     for (std::size_t i = 0; i < t.size(); ++i) {
-      f << Num(t.time_s[i]) << ',' << Num(t.qw[i]) << ',' << Num(t.qx[i]) << ',' << Num(t.qy[i]) << ','
-        << Num(t.qz[i]) << '\n';
+      f << test::FullPrecision(t.time_s[i]) << ',' << test::FullPrecision(t.qw[i]) << ','
+        << test::FullPrecision(t.qx[i]) << ',' << test::FullPrecision(t.qy[i]) << ','
+        << test::FullPrecision(t.qz[i]) << '\n';
       if (i == 299) f << "5.99,0.5,oops,0.5,0.5\n";
     }
     return path(name);
@@ -137,8 +132,9 @@ TEST_F(TrackPanelTest, ColumnEditRereadsScalarLast) {
   for (std::size_t i = 0; i < t.size(); ++i) {
     ASSERT_GT(std::min({t.qw[i], t.qx[i], t.qy[i], t.qz[i]}), 0.0) << "sample " << i;
     // Written scalar last.
-    f << Num(t.time_s[i] * 1e3) << ',' << Num(t.qx[i]) << ',' << Num(t.qy[i]) << ',' << Num(t.qz[i]) << ','
-      << Num(t.qw[i]) << '\n';
+    f << test::FullPrecision(t.time_s[i] * 1e3) << ',' << test::FullPrecision(t.qx[i]) << ','
+      << test::FullPrecision(t.qy[i]) << ',' << test::FullPrecision(t.qz[i]) << ','
+      << test::FullPrecision(t.qw[i]) << '\n';
   }
   f.close();
   ASSERT_EQ(run("frames 2\nwait\nframes 2\ndump " + path("0.json") +
@@ -183,8 +179,9 @@ TEST_F(TrackPanelTest, JsonLinesFromThePathBox) {
   const Track t = Generated();
   std::ofstream f(path("rover.jsonl"));
   for (std::size_t i = 0; i < t.size(); ++i) {
-    f << "{\"t\": " << Num(t.time_s[i]) << ", \"q\": {\"w\": " << Num(t.qw[i]) << ", \"x\": " << Num(t.qx[i])
-      << ", \"y\": " << Num(t.qy[i]) << ", \"z\": " << Num(t.qz[i]) << "}}\n";
+    f << "{\"t\": " << test::FullPrecision(t.time_s[i]) << ", \"q\": {\"w\": " << test::FullPrecision(t.qw[i])
+      << ", \"x\": " << test::FullPrecision(t.qx[i]) << ", \"y\": " << test::FullPrecision(t.qy[i])
+      << ", \"z\": " << test::FullPrecision(t.qz[i]) << "}}\n";
     if (i == 10) f << "{\"t\": 0.21, \"q\": {\"w\": 1, \"x\": 0}}\n";  // line 12: no y, z
   }
   f.close();

@@ -73,3 +73,16 @@ def angle_diff_deg(a, b):
     """Difference of two angles in degrees, modulo 360, in [0, 180]."""
     d = math.fmod(abs(a - b), 360.0)
     return min(d, 360.0 - d)
+
+
+def read_csv_rows(path):
+    """A CSV file's header and its numbers as a numpy array ('#' lines skipped)."""
+    import csv
+
+    import numpy as np
+
+    with open(path) as f:
+        lines = [l for l in f if not l.startswith("#")]
+    reader = csv.reader(lines)
+    header = next(reader)
+    return header, np.array([[float(x) for x in row] for row in reader])

@@ -12,7 +12,6 @@ from_quat takes scalar-last (x, y, z, w) Hamilton quaternions. Roll, pitch, yaw 
 read as intrinsic ZYX, Rotation.from_euler('ZYX', [yaw, pitch, roll]) (the usual aerospace
 reading: common practice).
 """
-import csv
 import json
 import os
 import subprocess
@@ -21,26 +20,19 @@ import tempfile
 
 import numpy as np
 
+import refcommon as rc
+
 try:
     from scipy.spatial.transform import Rotation
 except ImportError:
     sys.exit(77)
 
 TOL = 1e-12
-SEED = 20261201
-
-
-def read_rows(path):
-    with open(path) as f:
-        lines = [l for l in f if not l.startswith("#")]
-    reader = csv.reader(lines)
-    header = next(reader)
-    return header, np.array([[float(x) for x in row] for row in reader])
 
 
 def main():
     exe = sys.argv[1]
-    rng = np.random.default_rng(SEED)
+    rng = np.random.default_rng(rc.SEED)
     n = 500
     roll = rng.uniform(-np.pi, np.pi, n)
     pitch = rng.uniform(-np.pi / 2, np.pi / 2, n)
@@ -72,7 +64,7 @@ def main():
             out = os.path.join(tmp, "clean%d.csv" % k)
             subprocess.run([exe, "track", path, "--export", out, "--no-unwrap"], check=True,
                            stdout=subprocess.DEVNULL)
-            _, data = read_rows(out)
+            _, data = rc.read_csv_rows(out)
             if data.shape[0] != n:
                 print("FAIL %s: %d rows, expected %d" % (name, data.shape[0], n))
                 failures += 1

@@ -10,7 +10,6 @@ from_euler with upper-case axes is intrinsic, lower-case extrinsic, angles in th
 applied; from_matrix takes the matrix that maps body into world coordinates (v_world = R v_body,
 the matrix whose columns are the body axes), as attiscope's world_R_body.
 """
-import csv
 import os
 import subprocess
 import sys
@@ -19,17 +18,11 @@ import tempfile
 import numpy as np
 from scipy.spatial.transform import Rotation
 
+import refcommon as rc
+
 ROOT = os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", ".."))
 LOG = os.path.join(ROOT, "assets", "logs", "gimbal_tilt_sweep.csv")
 TOL = 1e-12
-
-
-def read_rows(path):
-    with open(path) as f:
-        lines = [l for l in f if not l.startswith("#")]
-    reader = csv.reader(lines)
-    header = next(reader)
-    return header, np.array([[float(x) for x in row] for row in reader])
 
 
 def angle_between(a, b):
@@ -38,7 +31,7 @@ def angle_between(a, b):
 
 def main():
     exe = sys.argv[1]
-    header, raw = read_rows(LOG)
+    header, raw = rc.read_csv_rows(LOG)
     assert header == ["time_s", "qx", "qy", "qz", "qw"], header
     original = Rotation.from_quat(raw[:, 1:5])  # scalar last, normalised by scipy
     failures = 0
@@ -61,7 +54,7 @@ def main():
         for k, (args, read) in enumerate(cases):
             out = os.path.join(tmp, "clean%d.csv" % k)
             subprocess.run([exe, "track", LOG, "--export", out] + args, check=True, stdout=subprocess.DEVNULL)
-            _, data = read_rows(out)
+            _, data = rc.read_csv_rows(out)
             if data.shape[0] != raw.shape[0] or not np.array_equal(data[:, 0], raw[:, 0]):
                 print("FAIL %s: times or row count differ" % args)
                 failures += 1

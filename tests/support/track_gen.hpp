@@ -6,8 +6,10 @@
 #include <Eigen/Core>
 #include <cmath>
 #include <cstddef>
+#include <cstdio>
 #include <functional>
 #include <random>
+#include <string>
 
 #include "attiscope/core/euler.hpp"
 #include "attiscope/core/track.hpp"
@@ -15,6 +17,13 @@
 namespace attiscope::test {
 
 inline constexpr double kDegToRad = M_PI / 180.0;
+
+/// A number as a test log writes it: 17 significant digits, so it reads back exactly.
+inline std::string FullPrecision(double v) {
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.17g", v);
+  return buf;
+}
 
 inline void PushSample(Track* t, double time, const Eigen::Quaterniond& q) {
   t->time_s.push_back(time);
