@@ -80,11 +80,14 @@ bool PlotPicture::paint(ImDrawList* content, ImVec2 min, ImVec2 max, ImVec2 scal
   glBindFramebuffer(GL_FRAMEBUFFER, framebuffer_);
   ImGui_ImplOpenGL3_RenderDrawData(&data);  // sets and restores the viewport and blending
   glBindFramebuffer(GL_FRAMEBUFFER, static_cast<GLuint>(previous_framebuffer));
+  ++generation_;
   return true;
 }
 
 void PlotPicture::show(ImDrawList* dl, ImVec2 min, ImVec2 max) const {
-  dl->AddCallback(disable_blending, nullptr);
+  // The generation rides on the callback, so a window that repaints only what changed sees
+  // a new picture under the same texture as a change (redraw.hpp keys the callbacks).
+  dl->AddCallback(disable_blending, reinterpret_cast<void*>(static_cast<std::uintptr_t>(generation_)));
   // GL's rows run bottom-up: the picture's top is the texture's last row.
   dl->AddImage(as_texture_id(texture_), min, max, ImVec2(0.0f, 1.0f), ImVec2(1.0f, 0.0f));
   dl->AddCallback(ImDrawCallback_ResetRenderState, nullptr);

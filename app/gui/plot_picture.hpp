@@ -35,6 +35,7 @@ class PlotPicture {
   unsigned texture_ = 0;
   unsigned framebuffer_ = 0;
   int width_ = 0, height_ = 0;
+  unsigned generation_ = 0;  ///< paints so far
 };
 
 }  // namespace attiscope::gui

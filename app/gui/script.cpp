@@ -19,7 +19,7 @@ std::string trim(const std::string& s) {
 }
 
 const char* const kOps[] = {"frames", "click", "type",       "key",  "clipboard", "resize",
-                            "dump",   "drag",  "screenshot", "quit", "scroll",    "wait"};
+                            "dump",   "drag",  "screenshot", "quit", "scroll",    "wait", "redraw-check"};
 
 }  // namespace
 

@@ -16,6 +16,8 @@
 //                       most S seconds, 60 if not given; longer fails the script)
 //   dump FILE           write the document and every card's numbers as JSON
 //   screenshot FILE     write the window as a PNG
+//   redraw-check        repaint this frame whole and fail unless it matches the frame as
+//                       drawn (which repaints only what changed; see redraw.hpp)
 //   quit                close the window
 //
 // Blank lines and lines starting with '#' are ignored.

@@ -109,11 +109,13 @@ void views_shutdown(Ui& ui) {
   ui.views->renderer.reset();
 }
 
-void views_draw(Ui& ui) {
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
   Views& views = *ui.views;
   ViewState& v = views.state;
   render::SceneRenderer* renderer = views.renderer.get();
-  if (!renderer) return;
+  std::vector<FramebufferRect> regions;
+  for (Views::Shown& sh : views.shown) sh.planned = false;
+  if (!renderer) return regions;
   if (v.pending_user_mesh) {
     renderer->set_user_mesh(*v.pending_user_mesh);
     v.pending_user_mesh.reset();
@@ -123,15 +125,28 @@ void views_draw(Ui& ui) {
   // picture does not need it); the settled frame after the motion is smoothed.
   const bool moving = v.drag != DragMode::None || ui.spinning;
   renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
-  const ImGuiIO& io = ImGui::GetIO();
-  const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
-  if (!ui.scene_viewport.empty()) {
+  auto plan = [&](Views::Shown& sh, const FramebufferRect& rect, render::SceneState st) {
+    if (rect.empty()) {
+      sh.shown_key.clear();  // gone from the window: drawn anew when it comes back
+      return;
+    }
+    sh.planned = true;
+    sh.rect = rect;
+    regions.push_back(rect);
+    sh.key = renderer->picture_key(st, rect.width, rect.height);
+    sh.state = std::move(st);
+    const FramebufferRect& was = sh.shown_rect;
+    const bool same_place =
+        was.x == rect.x && was.y == rect.y && was.width == rect.width && was.height == rect.height;
+    if (sh.key != sh.shown_key || !same_place) damage.mark(rect);
+  };
+  {
     render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
     apply_teaching_overlay(ui, &st);
     apply_chain_overlay(ui, &st);
-    renderer->draw(st, region_of(ui.scene_viewport, fb_h));
+    plan(views.shown[0], ui.scene_viewport, std::move(st));
   }
-  if (!ui.gimbal_viewport.empty()) {
+  {
     render::SceneState st = scene_state(ui, ui.gimbal_viewport.width, ui.gimbal_viewport.height);
     st.ghost_world_R_body.reset();
     st.camera.target = Eigen::Vector3d::Zero();
@@ -139,7 +154,22 @@ void views_draw(Ui& ui) {
     st.rings = to_euler(ui.doc.pose(), rings_convention(ui));
     st.show_world_triad = false;
     st.show_grid = false;
-    renderer->draw(st, region_of(ui.gimbal_viewport, fb_h));
+    plan(views.shown[1], ui.gimbal_viewport, std::move(st));
+  }
+  return regions;
+}
+
+void views_draw(Ui& ui, const DamageGrid* damage) {
+  Views& views = *ui.views;
+  render::SceneRenderer* renderer = views.renderer.get();
+  if (!renderer) return;
+  const ImGuiIO& io = ImGui::GetIO();
+  const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
+  for (Views::Shown& sh : views.shown) {
+    if (!sh.planned || (damage && !damage->touches(sh.rect))) continue;
+    renderer->draw(sh.state, region_of(sh.rect, fb_h));
+    sh.shown_key = sh.key;
+    sh.shown_rect = sh.rect;
   }
 }
 
@@ -174,8 +204,14 @@ void views_init(Ui& ui) {
 void views_shutdown(Ui& ui) {
   (void)ui;
 }
-void views_draw(Ui& ui) {
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
   (void)ui;
+  (void)damage;
+  return {};
+}
+void views_draw(Ui& ui, const DamageGrid* damage) {
+  (void)ui;
+  (void)damage;
 }
 nlohmann::json views_dump(const Ui& ui) {
   (void)ui;

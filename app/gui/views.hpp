@@ -14,6 +14,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "gui/redraw.hpp"
 #include "gui/ui.hpp"
 
 #ifdef ATTISCOPE_HAS_RENDER
@@ -34,10 +35,15 @@ namespace attiscope::gui {
 /// frame) / drops it before the context goes. The views' state exists from the Ui's start.
 void views_init(Ui& ui);
 void views_shutdown(Ui& ui);
+/// Plans this frame's views (after the panels are laid out): makes a pending PNG export,
+/// marks in `damage` the regions of the views whose picture will differ from what the
+/// window shows there (pose, camera, model, size or place changed), and returns the regions
+/// of all views shown this frame.
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage);
 /// Draws the Scene into ui.scene_viewport and the rings into ui.gimbal_viewport
-/// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport).
-/// Makes a pending PNG export.
-void views_draw(Ui& ui);
+/// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport):
+/// each view whose region has a dirty cell in `damage`, or every view when it is null.
+void views_draw(Ui& ui, const DamageGrid* damage);
 /// What the views show, for test dumps (null without render/).
 nlohmann::json views_dump(const Ui& ui);
 
@@ -102,6 +108,16 @@ struct Views {
   SceneFields fields;
   std::unique_ptr<render::SceneRenderer> renderer;
   std::string init_error;  ///< why there is no renderer
+  /// This frame's plan and what the window shows, per view (0 the Scene, 1 the rings).
+  struct Shown {
+    bool planned = false;
+    render::SceneState state;
+    FramebufferRect rect;
+    std::string key;        ///< the renderer's picture_key of `state`
+    std::string shown_key;  ///< what the window shows in shown_rect (empty: nothing known)
+    FramebufferRect shown_rect;
+  };
+  Shown shown[2];
 #endif
 };
 

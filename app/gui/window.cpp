@@ -10,6 +10,7 @@
 
 #include <unistd.h>
 #include <algorithm>
+#include <cstring>
 #include <chrono>
 #include <cmath>
 #include <cstdint>
@@ -25,6 +26,7 @@
 #include "attiscope/core/columns.hpp"
 #include "gui/card_values.hpp"
 #include "gui/gui.hpp"
+#include "gui/redraw.hpp"
 #include "gui/script.hpp"
 #include "gui/ui.hpp"
 #include "gui/views.hpp"
@@ -53,6 +55,8 @@ const char* kWindowHelp =
     "convention (.toml) to load, or a pose log to open in the Track panel (CSV, TSV,\n"
     "space-separated columns or JSON lines); a file dropped on the window opens the same way.\n"
     "  --size WxH      initial window size in screen coordinates\n"
+    "  --full-redraw   repaint the whole window every frame (by default, on Mesa's software\n"
+    "                  renderer, a frame repaints only the parts that changed)\n"
     "  --script FILE   drive the window with a test script, then close (see app/gui/script.hpp)\n"
     "  --bench N       frame-time benchmark: N frames while the body turns (or, with a log,\n"
     "                  while the Track panel scrubs through it), then print the median and\n"
@@ -64,6 +68,7 @@ struct WindowOptions {
   std::vector<std::string> files;
   std::optional<std::string> script_path;
   int bench_frames = 0;
+  bool full_redraw = false;
   int width = 0;
   int height = 0;
 };
@@ -86,6 +91,8 @@ std::optional<std::string> parse_options(const std::vector<std::string>& args, W
       if (!value(&v)) return "--bench needs a frame count";
       o->bench_frames = std::atoi(v.c_str());
       if (o->bench_frames < 1) return "--bench needs a positive frame count";
+    } else if (a == "--full-redraw") {
+      o->full_redraw = true;
     } else if (a == "--size") {
       if (!value(&v) || std::sscanf(v.c_str(), "%dx%d", &o->width, &o->height) != 2 || o->width < 1 ||
           o->height < 1)
@@ -247,6 +254,15 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["panels"] = ui.panel_state;
   j["track"] = track_dump(ui);
   return j;
+}
+
+/// The back buffer as RGBA rows, bottom-up.
+std::vector<unsigned char> read_back_buffer(int width, int height) {
+  std::vector<unsigned char> pixels(static_cast<std::size_t>(width) * static_cast<std::size_t>(height) * 4);
+  glPixelStorei(GL_PACK_ALIGNMENT, 1);
+  glReadBuffer(GL_BACK);
+  glReadPixels(0, 0, width, height, GL_RGBA, GL_UNSIGNED_BYTE, pixels.data());
+  return pixels;
 }
 
 bool write_screenshot(GLFWwindow* window, const std::string& path) {
@@ -582,6 +598,8 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     auto* list = static_cast<std::vector<std::string>*>(glfwGetWindowUserPointer(w));
     for (int k = 0; k < count; ++k) list->emplace_back(paths[k]);
   });
+  PartialPainter painter;
+  painter.set_allowed(!opt.full_redraw);
   float scale = window_scale(window, settings);
   build_fonts(ui, scale);
   ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
@@ -596,7 +614,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   int frames_left = kFramesAfterEvent;
   bool first_frame = true;
   double first_frame_s = 0.0, first_frame_process_s = 0.0;
-  std::vector<double> frame_times, frame_cpu, ui_cpu, imgui_draw_wall;
+  std::vector<double> frame_times, frame_cpu, ui_cpu, imgui_draw_wall, repainted_share;
   double previous_cpu = 0.0;
   int last_vertices = 0;
   Clock::time_point last_frame = Clock::now();
@@ -634,6 +652,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       ImGui_ImplOpenGL3_CreateFontsTexture();
       nearest_font_filter();
       ui.rebuild_fonts = false;
+      painter.invalidate();
     }
 
     const Clock::time_point start = Clock::now();
@@ -665,21 +684,55 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     glfwGetFramebufferSize(window, &fw, &fh);
     glViewport(0, 0, fw, fh);
     const ImVec4 panel = ImGui::GetStyle().Colors[ImGuiCol_WindowBg];
-    glClearColor(panel.x, panel.y, panel.z, 1.0f);
-    glClear(GL_COLOR_BUFFER_BIT);
     const Clock::time_point draw_start = Clock::now();
-    // The 3D views first, into their regions (the Scene and Gimbal panels have no
-    // background), so ImGui's popups and tooltips stay on top of them.
+    const ImDrawData& draw_data = *ImGui::GetDrawData();
     if (!first_frame && !views_started) {
       views_init(ui);
       views_started = true;
     }
-    views_draw(ui);
-    ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
-    if (opt.bench_frames > 0) glFinish();  // so the ImGui draw's own cost can be reported
+    // Only what changed is repainted (redraw.hpp): the ImGui triangles that differ from the
+    // last frame's and the views whose picture changed mark cells; the panel colour fills
+    // them, the views draw into their regions (the Scene and Gimbal panels have no
+    // background), then ImGui over them, so popups and tooltips stay on top.
+    auto paint = [&] {
+      painter.plan(draw_data, fw, fh);
+      painter.close(views_plan(ui, painter.grid()));
+      painter.paint_background(panel);
+      views_draw(ui, &painter.grid());
+      painter.draw_imgui(draw_data);
+    };
+    paint();
+    if (opt.bench_frames > 0) glFinish();  // so the draw's own cost can be reported
     const double draw_wall = seconds(draw_start, Clock::now());
+    if (opt.bench_frames > 0 && frame_index > 0)
+      repainted_share.push_back(painter.last_dirty_pixels() / (static_cast<double>(fw) * fh));
+    if (opt.script_path && !player.done() && player.steps[player.next].op == "redraw-check") {
+      // The same frame repainted whole must give the same pixels as the partial frame.
+      const std::vector<unsigned char> partial = read_back_buffer(fw, fh);
+      painter.invalidate();
+      paint();
+      const std::vector<unsigned char> whole = read_back_buffer(fw, fh);
+      std::size_t differing = 0, first = 0;
+      for (std::size_t k = 0; k < whole.size(); k += 4) {
+        if (std::memcmp(&whole[k], &partial[k], 3) == 0) continue;
+        if (differing++ == 0) first = k / 4;
+      }
+      const ScriptStep& step = player.steps[player.next];
+      if (differing > 0) {
+        err << "attiscope gui: script line " << step.line << ": the partial frame differs from a full redraw in "
+            << differing << " pixels, the first at x " << first % static_cast<std::size_t>(fw) << ", y "
+            << fh - 1 - static_cast<int>(first / static_cast<std::size_t>(fw)) << " from the top\n";
+        player.failed = true;
+        player.next = player.steps.size();
+      } else {
+        ++player.next;
+      }
+    }
+    painter.end_frame();
     if (opt.script_path) script_after_draw(player, ui, window, err);
+    painter.probe_before_swap();
     glfwSwapBuffers(window);
+    painter.probe_after_swap();
 
     if (first_frame) {
       glFinish();
@@ -764,9 +817,14 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         "  start-up: window and GL context %.1f ms, fonts and shaders %.1f ms, first frame %.1f ms\n",
         context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
     out << line;
+    std::snprintf(line, sizeof line, "  redraw: %s; median share of the window repainted %.0f%%\n",
+                  painter.partial() ? "only what changed (the back buffer is kept)" : "the whole window each frame",
+                  percentile(repainted_share, 0.5) * 100.0);
+    out << line;
   }
   shutdown_track(ui);
   views_shutdown(ui);
+  painter.release();
   ImGui_ImplOpenGL3_Shutdown();
   ImGui_ImplGlfw_Shutdown();
   ImGui::DestroyContext();

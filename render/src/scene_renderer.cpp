@@ -1137,6 +1137,15 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   gl::check("draw");
 }
 
+std::string SceneRenderer::picture_key(const SceneState& state, int width, int height) const {
+  const State& s = *state_;
+  SceneState sized = state;
+  sized.width_px = width;
+  sized.height_px = height;
+  return scene_fingerprint(sized, s.palette, s.user_mesh_generation) +
+         (s.options.antialiasing == Antialiasing::Post ? "|smoothed" : "|plain");
+}
+
 Image SceneRenderer::render_image(const SceneState& state) {
   State& s = *state_;
   const int w = std::max(state.width_px, 1), h = std::max(state.height_px, 1);

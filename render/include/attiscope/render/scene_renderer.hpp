@@ -76,6 +76,10 @@ class SceneRenderer {
   /// scissor, depth test, blending, culling, program and vertex array in GL's defaults
   /// (disabled / 0), restoring the viewport to the region.
   void draw(const SceneState& state, const Region& region);
+  /// What draw() shows for `state` in a region of width x height pixels, as a string: equal
+  /// strings, equal pictures (the antialiasing setting included). A window that repaints only
+  /// what changed compares them to skip a view that would look the same.
+  std::string picture_key(const SceneState& state, int width, int height) const;
 
   /// Renders into the renderer's offscreen target of state.width_px x state.height_px and
   /// reads it back.

@@ -1,0 +1,438 @@
+// redraw.cpp: the damage grid, the triangle keys and the partial painter (see redraw.hpp).
+#define GL_GLEXT_PROTOTYPES 1
+#include "gui/redraw.hpp"
+
+#include <GL/gl.h>
+#include <GL/glext.h>
+#include <imgui_impl_opengl3.h>
+#include <imgui_internal.h>  // ImGui::GetDrawListSharedData, for lists built outside a frame
+
+#include <algorithm>
+#include <cmath>
+#include <cstring>
+#include <string>
+
+namespace attiscope::gui {
+
+// --- DamageGrid ---------------------------------------------------------------------------
+
+void DamageGrid::begin(int width, int height) {
+  const bool resized = width != width_ || height != height_;
+  width_ = std::max(0, width);
+  height_ = std::max(0, height);
+  columns_ = (width_ + kCellPx - 1) / kCellPx;
+  rows_ = (height_ + kCellPx - 1) / kCellPx;
+  cells_.assign(static_cast<std::size_t>(columns_) * static_cast<std::size_t>(rows_), 0);
+  dirty_count_ = 0;
+  if (resized) mark_all();
+}
+
+void DamageGrid::mark_all() {
+  std::fill(cells_.begin(), cells_.end(), std::uint8_t{1});
+  dirty_count_ = static_cast<int>(cells_.size());
+}
+
+namespace {
+
+/// The cells [c0, c1] x [r0, r1] a rectangle covers; false when it covers none.
+bool cell_span(const FramebufferRect& r, int columns, int rows, int* c0, int* c1, int* r0, int* r1) {
+  if (r.empty()) return false;
+  *c0 = std::max(0, r.x / kCellPx);
+  *r0 = std::max(0, r.y / kCellPx);
+  *c1 = std::min(columns - 1, (r.x + r.width - 1) / kCellPx);
+  *r1 = std::min(rows - 1, (r.y + r.height - 1) / kCellPx);
+  if (r.x + r.width <= 0 || r.y + r.height <= 0) return false;
+  return *c0 <= *c1 && *r0 <= *r1;
+}
+
+}  // namespace
+
+bool DamageGrid::mark(const FramebufferRect& r) {
+  int c0 = 0, c1 = 0, r0 = 0, r1 = 0;
+  if (!cell_span(r, columns_, rows_, &c0, &c1, &r0, &r1)) return false;
+  const int before = dirty_count_;
+  for (int row = r0; row <= r1; ++row) {
+    std::uint8_t* line = cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
+    for (int c = c0; c <= c1; ++c) {
+      dirty_count_ += line[c] == 0 ? 1 : 0;
+      line[c] = 1;
+    }
+  }
+  return dirty_count_ != before;
+}
+
+bool DamageGrid::touches(const FramebufferRect& r) const {
+  if (dirty_count_ == 0) return false;
+  int c0 = 0, c1 = 0, r0 = 0, r1 = 0;
+  if (!cell_span(r, columns_, rows_, &c0, &c1, &r0, &r1)) return false;
+  for (int row = r0; row <= r1; ++row) {
+    const std::uint8_t* line = cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
+    for (int c = c0; c <= c1; ++c)
+      if (line[c] != 0) return true;
+  }
+  return false;
+}
+
+std::vector<FramebufferRect> DamageGrid::rects() const {
+  struct Open {
+    int c0, c1, r0;
+  };
+  std::vector<FramebufferRect> out;
+  std::vector<Open> open, next;
+  auto emit = [&](const Open& o, int r_end) {
+    const int x = o.c0 * kCellPx, y = o.r0 * kCellPx;
+    out.push_back({x, y, std::min((o.c1 + 1) * kCellPx, width_) - x, std::min(r_end * kCellPx, height_) - y});
+  };
+  for (int row = 0; row <= rows_; ++row) {
+    next.clear();
+    std::size_t k = 0;  // open runs are in column order, like this row's runs
+    if (row < rows_) {
+      const std::uint8_t* line =
+          cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
+      for (int c = 0; c < columns_;) {
+        if (line[c] == 0) {
+          ++c;
+          continue;
+        }
+        const int c0 = c;
+        while (c < columns_ && line[c] != 0) ++c;
+        const int c1 = c - 1;
+        while (k < open.size() && open[k].c0 < c0) emit(open[k++], row);
+        if (k < open.size() && open[k].c0 == c0 && open[k].c1 == c1) {
+          next.push_back(open[k++]);  // the same run as the row below: the rectangle grows
+        } else {
+          next.push_back({c0, c1, row});
+        }
+      }
+    }
+    while (k < open.size()) emit(open[k++], row);
+    open.swap(next);
+  }
+  return out;
+}
+
+// --- Triangle keys ------------------------------------------------------------------------
+
+namespace {
+
+std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
+  h ^= v;
+  h *= 0x9E3779B97F4A7C15ULL;
+  return h ^ (h >> 29);
+}
+
+std::uint64_t bits(float f) {
+  std::uint32_t u = 0;
+  std::memcpy(&u, &f, sizeof u);
+  return u;
+}
+
+std::uint64_t vertex_key(std::uint64_t h, const ImDrawVert& v) {
+  h = mix(h, bits(v.pos.x) | (bits(v.pos.y) << 32));
+  h = mix(h, bits(v.uv.x) | (bits(v.uv.y) << 32));
+  return mix(h, v.col);
+}
+
+std::uint64_t finish(std::uint64_t h) {
+  h ^= h >> 33;
+  h *= 0xFF51AFD7ED558CCDULL;
+  h ^= h >> 33;
+  h *= 0xC4CEB9FE1A85EC53ULL;
+  return h ^ (h >> 33);
+}
+
+}  // namespace
+
+std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuffer_height) {
+  std::vector<DrawnTriangle> out;
+  out.reserve(static_cast<std::size_t>(data.TotalIdxCount / 3));
+  const ImVec2 off = data.DisplayPos, scale = data.FramebufferScale;
+  for (int l = 0; l < data.CmdListsCount; ++l) {
+    const ImDrawList& list = *data.CmdLists[l];
+    std::uint64_t state = mix(0x51ED270B27A1C3F5ULL, static_cast<std::uint64_t>(l));
+    for (const ImDrawCmd& cmd : list.CmdBuffer) {
+      if (cmd.UserCallback != nullptr) {
+        // A callback changes how what follows is drawn (blending, a picture's generation).
+        state = mix(state, reinterpret_cast<std::uintptr_t>(cmd.UserCallback));
+        state = mix(state, reinterpret_cast<std::uintptr_t>(cmd.UserCallbackData));
+        continue;
+      }
+      std::uint64_t base = mix(state, reinterpret_cast<std::uintptr_t>(cmd.TextureId));
+      base = mix(base, bits(cmd.ClipRect.x) | (bits(cmd.ClipRect.y) << 32));
+      base = mix(base, bits(cmd.ClipRect.z) | (bits(cmd.ClipRect.w) << 32));
+      // The clip rectangle in pixels, top-left origin, widened to whole pixels.
+      const float cx0 = std::floor((cmd.ClipRect.x - off.x) * scale.x);
+      const float cy0 = std::floor((cmd.ClipRect.y - off.y) * scale.y);
+      const float cx1 = std::ceil((cmd.ClipRect.z - off.x) * scale.x);
+      const float cy1 = std::ceil((cmd.ClipRect.w - off.y) * scale.y);
+      const ImDrawIdx* idx = list.IdxBuffer.Data + cmd.IdxOffset;
+      const ImDrawVert* vtx = list.VtxBuffer.Data + cmd.VtxOffset;
+      for (unsigned t = 0; t + 2 < cmd.ElemCount; t += 3) {
+        const ImDrawVert& a = vtx[idx[t]];
+        const ImDrawVert& b = vtx[idx[t + 1]];
+        const ImDrawVert& c = vtx[idx[t + 2]];
+        DrawnTriangle d;
+        d.key = finish(vertex_key(vertex_key(vertex_key(base, a), b), c));
+        const float x0 = std::max(cx0, std::floor((std::min({a.pos.x, b.pos.x, c.pos.x}) - off.x) * scale.x));
+        const float y0 = std::max(cy0, std::floor((std::min({a.pos.y, b.pos.y, c.pos.y}) - off.y) * scale.y));
+        const float x1 = std::min(cx1, std::ceil((std::max({a.pos.x, b.pos.x, c.pos.x}) - off.x) * scale.x));
+        const float y1 = std::min(cy1, std::ceil((std::max({a.pos.y, b.pos.y, c.pos.y}) - off.y) * scale.y));
+        if (x1 > x0 && y1 > y0) {
+          // To GL's bottom-left origin.
+          d.box = {static_cast<int>(x0), framebuffer_height - static_cast<int>(y1), static_cast<int>(x1 - x0),
+                   static_cast<int>(y1 - y0)};
+        }
+        out.push_back(d);
+      }
+    }
+  }
+  return out;
+}
+
+void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid) {
+  auto drop_empty = [](std::vector<DrawnTriangle>& v) {
+    v.erase(std::remove_if(v.begin(), v.end(), [](const DrawnTriangle& d) { return d.box.empty(); }), v.end());
+    std::sort(v.begin(), v.end(), [](const DrawnTriangle& a, const DrawnTriangle& b) { return a.key < b.key; });
+  };
+  drop_empty(before);
+  drop_empty(now);
+  std::size_t i = 0, j = 0;
+  while (i < before.size() || j < now.size()) {
+    if (j == now.size() || (i < before.size() && before[i].key < now[j].key)) {
+      grid.mark(before[i++].box);  // gone: its pixels must be repainted without it
+    } else if (i == before.size() || now[j].key < before[i].key) {
+      grid.mark(now[j++].box);  // new
+    } else {
+      ++i;
+      ++j;
+    }
+  }
+}
+
+void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
+                  const std::vector<FramebufferRect>& regions) {
+  // Each pass adds what touches the damage; it ends when a pass adds nothing (at most every
+  // cell, so it ends).
+  for (bool grew = true; grew && !grid.all();) {
+    grew = false;
+    for (const FramebufferRect& r : regions)
+      if (grid.touches(r)) grew = grid.mark(r) || grew;
+    for (const DrawnTriangle& t : triangles)
+      if (!t.box.empty() && grid.touches(t.box)) grew = grid.mark(t.box) || grew;
+  }
+}
+
+// --- PartialPainter -----------------------------------------------------------------------
+
+namespace {
+
+constexpr const char* kFillVertex = R"(#version 330 core
+layout(location = 0) in vec2 pixel;
+uniform vec2 size;
+void main() { gl_Position = vec4(pixel / size * 2.0 - 1.0, 0.0, 1.0); }
+)";
+
+constexpr const char* kFillFragment = R"(#version 330 core
+uniform vec4 colour;
+out vec4 result;
+void main() { result = colour; }
+)";
+
+unsigned compile(GLenum kind, const char* source) {
+  const GLuint s = glCreateShader(kind);
+  glShaderSource(s, 1, &source, nullptr);
+  glCompileShader(s);
+  GLint ok = 0;
+  glGetShaderiv(s, GL_COMPILE_STATUS, &ok);
+  if (!ok) {
+    glDeleteShader(s);
+    return 0;
+  }
+  return s;
+}
+
+/// The rows the probe compares: a quarter, half and three quarters up the framebuffer.
+constexpr int kProbeRows = 3;
+
+void read_probe_rows(int width, int height, std::vector<unsigned char>* out) {
+  out->assign(static_cast<std::size_t>(width) * 4 * kProbeRows, 0);
+  glPixelStorei(GL_PACK_ALIGNMENT, 1);
+  glReadBuffer(GL_BACK);
+  for (int k = 0; k < kProbeRows; ++k) {
+    glReadPixels(0, height * (k + 1) / (kProbeRows + 1), width, 1, GL_RGBA, GL_UNSIGNED_BYTE,
+                 out->data() + static_cast<std::size_t>(k) * static_cast<std::size_t>(width) * 4);
+  }
+}
+
+}  // namespace
+
+PartialPainter::~PartialPainter() {
+  for (ImDrawList* l : filtered_) IM_DELETE(l);
+}
+
+bool PartialPainter::driver_keeps_back_buffer() {
+  const auto* renderer = reinterpret_cast<const char*>(glGetString(GL_RENDERER));
+  const std::string name = renderer ? renderer : "";
+  // Mesa's software drivers keep the back buffer and copy it to the window on a swap.
+  return name.find("llvmpipe") != std::string::npos || name.find("softpipe") != std::string::npos;
+}
+
+bool PartialPainter::ensure_gl() {
+  if (program_ != 0) return true;
+  const unsigned vs = compile(GL_VERTEX_SHADER, kFillVertex);
+  const unsigned fs = compile(GL_FRAGMENT_SHADER, kFillFragment);
+  if (vs == 0 || fs == 0) return false;
+  program_ = glCreateProgram();
+  glAttachShader(program_, vs);
+  glAttachShader(program_, fs);
+  glLinkProgram(program_);
+  glDeleteShader(vs);
+  glDeleteShader(fs);
+  GLint ok = 0;
+  glGetProgramiv(program_, GL_LINK_STATUS, &ok);
+  if (!ok) {
+    glDeleteProgram(program_);
+    program_ = 0;
+    return false;
+  }
+  size_uniform_ = glGetUniformLocation(program_, "size");
+  colour_uniform_ = glGetUniformLocation(program_, "colour");
+  glGenVertexArrays(1, &vao_);
+  glGenBuffers(1, &vbo_);
+  glBindVertexArray(vao_);
+  glBindBuffer(GL_ARRAY_BUFFER, vbo_);
+  glEnableVertexAttribArray(0);
+  glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, 2 * sizeof(float), nullptr);
+  glBindVertexArray(0);
+  return true;
+}
+
+void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int framebuffer_height) {
+  grid_.begin(framebuffer_width, framebuffer_height);
+  now_ = drawn_triangles(data, framebuffer_height);
+  full_ = !partial() || invalidated_ || grid_.all();
+  invalidated_ = false;
+  if (full_) {
+    grid_.mark_all();
+  } else {
+    mark_changes(before_, now_, grid_);
+  }
+}
+
+void PartialPainter::close(const std::vector<FramebufferRect>& view_regions) {
+  if (!full_) close_damage(grid_, now_, view_regions);
+}
+
+void PartialPainter::paint_background(const ImVec4& colour) {
+  const int w = grid_.width(), h = grid_.height();
+  glViewport(0, 0, w, h);
+  glDisable(GL_SCISSOR_TEST);
+  full_ = full_ || grid_.all() || !ensure_gl();
+  if (full_) {
+    glClearColor(colour.x, colour.y, colour.z, 1.0f);
+    glClear(GL_COLOR_BUFFER_BIT);
+    last_dirty_pixels_ = w * h;
+    return;
+  }
+  last_dirty_pixels_ = 0;
+  if (!grid_.any()) return;
+  const std::vector<FramebufferRect> rects = grid_.rects();
+  std::vector<float> corners;
+  corners.reserve(rects.size() * 12);
+  for (const FramebufferRect& r : rects) {
+    const auto x0 = static_cast<float>(r.x), y0 = static_cast<float>(r.y);
+    const auto x1 = static_cast<float>(r.x + r.width), y1 = static_cast<float>(r.y + r.height);
+    corners.insert(corners.end(), {x0, y0, x1, y0, x1, y1, x0, y0, x1, y1, x0, y1});
+    last_dirty_pixels_ += r.width * r.height;
+  }
+  glDisable(GL_BLEND);
+  glDisable(GL_DEPTH_TEST);
+  glDisable(GL_STENCIL_TEST);
+  glDisable(GL_CULL_FACE);
+  glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
+  glUseProgram(program_);
+  glUniform2f(size_uniform_, static_cast<float>(w), static_cast<float>(h));
+  glUniform4f(colour_uniform_, colour.x, colour.y, colour.z, 1.0f);
+  glBindVertexArray(vao_);
+  glBindBuffer(GL_ARRAY_BUFFER, vbo_);
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(corners.size() * sizeof(float)), corners.data(),
+               GL_STREAM_DRAW);
+  glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(corners.size() / 2));
+  glBindVertexArray(0);
+  glUseProgram(0);
+}
+
+void PartialPainter::draw_imgui(const ImDrawData& data) {
+  if (full_) {
+    ImGui_ImplOpenGL3_RenderDrawData(const_cast<ImDrawData*>(&data));
+    return;
+  }
+  if (!grid_.any()) return;
+  // Copies of the lists holding only the triangles over dirty cells (which lie wholly inside
+  // them: close()).
+  while (static_cast<int>(filtered_.size()) < data.CmdListsCount)
+    filtered_.push_back(IM_NEW(ImDrawList)(ImGui::GetDrawListSharedData()));
+  std::size_t t = 0;  // index into now_, in draw order
+  for (int l = 0; l < data.CmdListsCount; ++l) {
+    const ImDrawList& src = *data.CmdLists[l];
+    ImDrawList& dst = *filtered_[static_cast<std::size_t>(l)];
+    dst.CmdBuffer.resize(0);
+    dst.IdxBuffer.resize(0);
+    dst.VtxBuffer = src.VtxBuffer;
+    dst.Flags = src.Flags;
+    for (const ImDrawCmd& cmd : src.CmdBuffer) {
+      if (cmd.UserCallback != nullptr) {
+        dst.CmdBuffer.push_back(cmd);
+        continue;
+      }
+      ImDrawCmd out = cmd;
+      out.IdxOffset = static_cast<unsigned>(dst.IdxBuffer.Size);
+      const ImDrawIdx* idx = src.IdxBuffer.Data + cmd.IdxOffset;
+      for (unsigned k = 0; k + 2 < cmd.ElemCount; k += 3, ++t) {
+        if (!grid_.touches(now_[t].box)) continue;
+        dst.IdxBuffer.push_back(idx[k]);
+        dst.IdxBuffer.push_back(idx[k + 1]);
+        dst.IdxBuffer.push_back(idx[k + 2]);
+      }
+      out.ElemCount = static_cast<unsigned>(dst.IdxBuffer.Size) - out.IdxOffset;
+      if (out.ElemCount > 0) dst.CmdBuffer.push_back(out);
+    }
+  }
+  ImDrawData partial = data;
+  partial.CmdLists = filtered_.data();
+  partial.TotalIdxCount = 0;
+  for (int l = 0; l < data.CmdListsCount; ++l) partial.TotalIdxCount += filtered_[static_cast<std::size_t>(l)]->IdxBuffer.Size;
+  ImGui_ImplOpenGL3_RenderDrawData(&partial);
+}
+
+void PartialPainter::end_frame() {
+  before_.swap(now_);
+}
+
+void PartialPainter::probe_before_swap() {
+  probe_pending_ = false;
+  if (!allowed_ || kept_ || probed_ || !full_) return;
+  probed_ = true;  // once: a driver that does not keep the buffer is not asked every frame
+  if (!driver_keeps_back_buffer()) return;
+  read_probe_rows(grid_.width(), grid_.height(), &probe_);
+  probe_pending_ = true;
+}
+
+void PartialPainter::probe_after_swap() {
+  if (!probe_pending_) return;
+  probe_pending_ = false;
+  std::vector<unsigned char> after;
+  read_probe_rows(grid_.width(), grid_.height(), &after);
+  kept_ = after == probe_;
+}
+
+void PartialPainter::release() {
+  if (program_ != 0) glDeleteProgram(program_);
+  if (vbo_ != 0) glDeleteBuffers(1, &vbo_);
+  if (vao_ != 0) glDeleteVertexArrays(1, &vao_);
+  program_ = vao_ = vbo_ = 0;
+  kept_ = probed_ = false;
+  invalidated_ = true;
+}
+
+}  // namespace attiscope::gui

@@ -1,0 +1,148 @@
+// redraw.hpp: drawing only the parts of the window that changed since the last frame.
+//
+// On the software renderer most of a frame's cost is rasterising: every glyph, frame and
+// button of every panel, each frame, though a turning body changes only the numbers, the
+// views and a few marks. Where the window's back buffer keeps its pixels across a swap
+// (Mesa's software drivers copy it to the window and keep it), a frame need only repaint
+// the cells whose content changed:
+//
+// - `drawn_triangles` keys each ImGui triangle by what it draws (its vertices, texture,
+//   clip rectangle, draw list and the draw callback in force) and boxes the pixels it can
+//   touch;
+// - `mark_changes` compares two frames' keys as multisets: a triangle that appeared or went
+//   away marks the cells under its box dirty (cells of kCellPx square pixels);
+// - the 3D views mark their whole region when their picture changes;
+// - `close_damage` grows the dirty cells until every triangle and view that touches them
+//   lies wholly inside them, so what is redrawn never spills onto a clean cell (no stencil
+//   is needed: on llvmpipe writing and testing one cost more than the drawing it saved);
+// - `PartialPainter` fills the dirty cells with the panel colour, the views that touch them
+//   draw, and then only the ImGui triangles that touch them, so the clean cells keep last
+//   frame's pixels exactly.
+//
+// A full redraw (the first frames, a resize, new fonts, or a driver whose back buffer is not
+// known to be kept) repaints every cell. The script step `redraw-check` compares a partial
+// frame with a full redraw of the same frame, pixel for pixel.
+#pragma once
+
+#include <imgui.h>
+
+#include <cstdint>
+#include <vector>
+
+#include "gui/ui.hpp"
+
+namespace attiscope::gui {
+
+/// Side of a damage cell in framebuffer pixels: smaller than the spacing between widgets, so
+/// growing the damage over whole triangles does not run from one widget into the next.
+inline constexpr int kCellPx = 4;
+
+/// The dirty cells of one frame, over a framebuffer of width x height pixels. Rectangles are
+/// FramebufferRect's: pixels, origin bottom-left (glScissor's arguments).
+class DamageGrid {
+ public:
+  /// Starts a frame: every cell clean, or every cell dirty when the size changed.
+  void begin(int width, int height);
+  void mark_all();
+  /// Marks the cells r covers; true when any of them was clean.
+  bool mark(const FramebufferRect& r);
+  /// Whether any dirty cell overlaps r.
+  bool touches(const FramebufferRect& r) const;
+  bool any() const { return dirty_count_ > 0; }
+  bool all() const { return dirty_count_ == static_cast<int>(cells_.size()); }
+  /// The dirty cells as few rectangles (runs along rows, stacked where rows agree), clipped to
+  /// the framebuffer.
+  std::vector<FramebufferRect> rects() const;
+  int width() const { return width_; }
+  int height() const { return height_; }
+
+ private:
+  int width_ = 0, height_ = 0;
+  int columns_ = 0, rows_ = 0;
+  int dirty_count_ = 0;
+  std::vector<std::uint8_t> cells_;  ///< row-major from the bottom row
+};
+
+/// One ImGui triangle: what it draws, and the framebuffer pixels it can touch (its box, widened
+/// to whole pixels and cut to its clip rectangle).
+struct DrawnTriangle {
+  std::uint64_t key = 0;
+  FramebufferRect box;
+};
+
+/// The frame's triangles in draw order (those that can touch no pixel are left out, with
+/// `box` empty, so indices match the draw data's triangles).
+std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuffer_height);
+
+/// Marks in `grid` the boxes of triangles in one frame and not the other (keys compared as
+/// multisets: equal keys pair up whatever their order).
+void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid);
+
+/// Grows the dirty cells until each triangle and each region (the views, drawn whole) that
+/// touches them lies inside them.
+void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
+                  const std::vector<FramebufferRect>& regions);
+
+/// The GL side: a kept back buffer's dirty cells filled and redrawn. Needs the window's GL
+/// context current; release() before it goes.
+class PartialPainter {
+ public:
+  PartialPainter() = default;
+  PartialPainter(const PartialPainter&) = delete;
+  PartialPainter& operator=(const PartialPainter&) = delete;
+  ~PartialPainter();
+
+  /// Whether the driver is one whose back buffer is known to be kept across a swap (Mesa's
+  /// software renderers): the precondition of partial frames. The kept pixels themselves are
+  /// checked by probe_before_swap/probe_after_swap.
+  static bool driver_keeps_back_buffer();
+
+  /// Partial frames on or off (off: every frame is a full redraw, the window's classic path).
+  void set_allowed(bool allowed) { allowed_ = allowed; }
+  bool partial() const { return allowed_ && kept_; }
+  /// Next frame repaints everything (new fonts, a changed texture).
+  void invalidate() { invalidated_ = true; }
+
+  /// Plans the frame from ImGui's draw data: the grid holds the cells that changed.
+  void plan(const ImDrawData& data, int framebuffer_width, int framebuffer_height);
+  /// After the views have marked their changes: grows the damage over whole triangles and
+  /// over the views' regions (`close_damage`).
+  void close(const std::vector<FramebufferRect>& view_regions);
+  DamageGrid& grid() { return grid_; }
+  const DamageGrid& grid() const { return grid_; }
+
+  /// Fills the dirty cells with `colour`.
+  void paint_background(const ImVec4& colour);
+  /// Draws the ImGui triangles over dirty cells (all of them on a full frame).
+  void draw_imgui(const ImDrawData& data);
+  /// Keeps this frame's triangles as the next frame's "before".
+  void end_frame();
+
+  /// The check that the back buffer keeps its pixels: a few rows read before the first full
+  /// frame's swap and again after it; partial frames start when they agree.
+  void probe_before_swap();
+  void probe_after_swap();
+
+  /// Framebuffer statistics of the last planned frame, for the benchmark.
+  int last_dirty_pixels() const { return last_dirty_pixels_; }
+
+  void release();
+
+ private:
+  bool ensure_gl();
+  bool allowed_ = true;
+  bool kept_ = false;         ///< the probe found the back buffer kept
+  bool probed_ = false;
+  bool probe_pending_ = false;
+  bool invalidated_ = true;
+  bool full_ = true;          ///< this frame repaints everything
+  int last_dirty_pixels_ = 0;
+  DamageGrid grid_;
+  std::vector<DrawnTriangle> before_, now_;
+  std::vector<ImDrawList*> filtered_;
+  std::vector<unsigned char> probe_;
+  unsigned program_ = 0, vao_ = 0, vbo_ = 0;
+  int size_uniform_ = -1, colour_uniform_ = -1;
+};
+
+}  // namespace attiscope::gui
