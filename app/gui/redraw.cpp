@@ -22,55 +22,96 @@ void DamageGrid::begin(int width, int height) {
   height_ = std::max(0, height);
   columns_ = (width_ + kCellPx - 1) / kCellPx;
   rows_ = (height_ + kCellPx - 1) / kCellPx;
-  cells_.assign(static_cast<std::size_t>(columns_) * static_cast<std::size_t>(rows_), 0);
+  words_ = (columns_ + 63) / 64;
+  bits_.assign(static_cast<std::size_t>(words_) * static_cast<std::size_t>(rows_), 0);
   dirty_count_ = 0;
   if (resized) mark_all();
 }
 
 void DamageGrid::mark_all() {
-  std::fill(cells_.begin(), cells_.end(), std::uint8_t{1});
-  dirty_count_ = static_cast<int>(cells_.size());
+  mark({0, 0, width_, height_});
 }
 
 namespace {
 
-/// The cells [c0, c1] x [r0, r1] a rectangle covers; false when it covers none.
-bool cell_span(const FramebufferRect& r, int columns, int rows, int* c0, int* c1, int* r0, int* r1) {
-  if (r.empty()) return false;
-  *c0 = std::max(0, r.x / kCellPx);
-  *r0 = std::max(0, r.y / kCellPx);
-  *c1 = std::min(columns - 1, (r.x + r.width - 1) / kCellPx);
-  *r1 = std::min(rows - 1, (r.y + r.height - 1) / kCellPx);
-  if (r.x + r.width <= 0 || r.y + r.height <= 0) return false;
-  return *c0 <= *c1 && *r0 <= *r1;
+/// The mask of bits [b0, b1] (inclusive) within a 64-bit word.
+std::uint64_t bit_range(int b0, int b1) {
+  const std::uint64_t high = b1 >= 63 ? ~std::uint64_t{0} : (std::uint64_t{1} << (b1 + 1)) - 1;
+  return high & ~((std::uint64_t{1} << b0) - 1);
 }
 
 }  // namespace
 
-bool DamageGrid::mark(const FramebufferRect& r) {
-  int c0 = 0, c1 = 0, r0 = 0, r1 = 0;
-  if (!cell_span(r, columns_, rows_, &c0, &c1, &r0, &r1)) return false;
-  const int before = dirty_count_;
+template <typename F>
+bool DamageGrid::for_rows(const FramebufferRect& r, F&& f) const {
+  if (r.empty() || r.x + r.width <= 0 || r.y + r.height <= 0 || r.x >= width_ || r.y >= height_) return false;
+  const int c0 = std::max(0, r.x / kCellPx);
+  const int r0 = std::max(0, r.y / kCellPx);
+  const int c1 = std::min(columns_ - 1, (r.x + r.width - 1) / kCellPx);
+  const int r1 = std::min(rows_ - 1, (r.y + r.height - 1) / kCellPx);
+  const int w0 = c0 / 64, w1 = c1 / 64;
   for (int row = r0; row <= r1; ++row) {
-    std::uint8_t* line = cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
-    for (int c = c0; c <= c1; ++c) {
-      dirty_count_ += line[c] == 0 ? 1 : 0;
-      line[c] = 1;
+    const std::size_t base = static_cast<std::size_t>(row) * static_cast<std::size_t>(words_);
+    for (int w = w0; w <= w1; ++w) {
+      const std::uint64_t mask = bit_range(w == w0 ? c0 % 64 : 0, w == w1 ? c1 % 64 : 63);
+      if (!f(base + static_cast<std::size_t>(w), mask)) return true;
     }
   }
+  return true;
+}
+
+bool DamageGrid::mark(const FramebufferRect& r) {
+  const int before = dirty_count_;
+  for_rows(r, [this](std::size_t word, std::uint64_t mask) {
+    dirty_count_ += __builtin_popcountll(mask & ~bits_[word]);
+    bits_[word] |= mask;
+    return true;
+  });
   return dirty_count_ != before;
 }
 
 bool DamageGrid::touches(const FramebufferRect& r) const {
   if (dirty_count_ == 0) return false;
-  int c0 = 0, c1 = 0, r0 = 0, r1 = 0;
-  if (!cell_span(r, columns_, rows_, &c0, &c1, &r0, &r1)) return false;
-  for (int row = r0; row <= r1; ++row) {
-    const std::uint8_t* line = cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
-    for (int c = c0; c <= c1; ++c)
-      if (line[c] != 0) return true;
-  }
-  return false;
+  bool found = false;
+  for_rows(r, [&](std::size_t word, std::uint64_t mask) {
+    found = (bits_[word] & mask) != 0;
+    return !found;  // stop at the first dirty cell
+  });
+  return found;
+}
+
+FramebufferRect DamageGrid::dirty_bounds(const FramebufferRect& r) const {
+  int c0 = columns_, c1 = -1, r0 = rows_, r1 = -1;
+  for_rows(r, [&](std::size_t word, std::uint64_t mask) {
+    std::uint64_t hit = bits_[word] & mask;
+    if (hit == 0) return true;
+    const int row = static_cast<int>(word / static_cast<std::size_t>(words_));
+    const int base = static_cast<int>(word % static_cast<std::size_t>(words_)) * 64;
+    c0 = std::min(c0, base + __builtin_ctzll(hit));
+    c1 = std::max(c1, base + 63 - __builtin_clzll(hit));
+    r0 = std::min(r0, row);
+    r1 = std::max(r1, row);
+    return true;
+  });
+  if (c1 < c0) return {};
+  const int x0 = std::max(r.x, c0 * kCellPx), y0 = std::max(r.y, r0 * kCellPx);
+  const int x1 = std::min(r.x + r.width, (c1 + 1) * kCellPx),
+            y1 = std::min(r.y + r.height, (r1 + 1) * kCellPx);
+  return {x0, y0, x1 - x0, y1 - y0};
+}
+
+void DamageGrid::clear_inside(const FramebufferRect& r) {
+  // The cells wholly inside r: r shrunk to whole cells.
+  const int x0 = (std::max(0, r.x) + kCellPx - 1) / kCellPx * kCellPx;
+  const int y0 = (std::max(0, r.y) + kCellPx - 1) / kCellPx * kCellPx;
+  const int x1 = std::min(r.x + r.width, width_) / kCellPx * kCellPx;
+  const int y1 = std::min(r.y + r.height, height_) / kCellPx * kCellPx;
+  if (x1 <= x0 || y1 <= y0) return;
+  for_rows({x0, y0, x1 - x0, y1 - y0}, [this](std::size_t word, std::uint64_t mask) {
+    dirty_count_ -= __builtin_popcountll(mask & bits_[word]);
+    bits_[word] &= ~mask;
+    return true;
+  });
 }
 
 std::vector<FramebufferRect> DamageGrid::rects() const {
@@ -83,26 +124,27 @@ std::vector<FramebufferRect> DamageGrid::rects() const {
     const int x = o.c0 * kCellPx, y = o.r0 * kCellPx;
     out.push_back({x, y, std::min((o.c1 + 1) * kCellPx, width_) - x, std::min(r_end * kCellPx, height_) - y});
   };
+  auto dirty = [this](int row, int c) {
+    const std::uint64_t w = bits_[static_cast<std::size_t>(row) * static_cast<std::size_t>(words_) +
+                                  static_cast<std::size_t>(c / 64)];
+    return ((w >> (c % 64)) & 1u) != 0;
+  };
   for (int row = 0; row <= rows_; ++row) {
     next.clear();
     std::size_t k = 0;  // open runs are in column order, like this row's runs
-    if (row < rows_) {
-      const std::uint8_t* line =
-          cells_.data() + static_cast<std::size_t>(row) * static_cast<std::size_t>(columns_);
-      for (int c = 0; c < columns_;) {
-        if (line[c] == 0) {
-          ++c;
-          continue;
-        }
-        const int c0 = c;
-        while (c < columns_ && line[c] != 0) ++c;
-        const int c1 = c - 1;
-        while (k < open.size() && open[k].c0 < c0) emit(open[k++], row);
-        if (k < open.size() && open[k].c0 == c0 && open[k].c1 == c1) {
-          next.push_back(open[k++]);  // the same run as the row below: the rectangle grows
-        } else {
-          next.push_back({c0, c1, row});
-        }
+    for (int c = 0; row < rows_ && c < columns_;) {
+      if (!dirty(row, c)) {
+        ++c;
+        continue;
+      }
+      const int c0 = c;
+      while (c < columns_ && dirty(row, c)) ++c;
+      const int c1 = c - 1;
+      while (k < open.size() && open[k].c0 < c0) emit(open[k++], row);
+      if (k < open.size() && open[k].c0 == c0 && open[k].c1 == c1) {
+        next.push_back(open[k++]);  // the same run as the row below: the rectangle grows
+      } else {
+        next.push_back({c0, c1, row});
       }
     }
     while (k < open.size()) emit(open[k++], row);
@@ -191,8 +233,10 @@ std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuff
 
 void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid) {
   auto drop_empty = [](std::vector<DrawnTriangle>& v) {
-    v.erase(std::remove_if(v.begin(), v.end(), [](const DrawnTriangle& d) { return d.box.empty(); }), v.end());
-    std::sort(v.begin(), v.end(), [](const DrawnTriangle& a, const DrawnTriangle& b) { return a.key < b.key; });
+    v.erase(std::remove_if(v.begin(), v.end(), [](const DrawnTriangle& d) { return d.box.empty(); }),
+            v.end());
+    std::sort(v.begin(), v.end(),
+              [](const DrawnTriangle& a, const DrawnTriangle& b) { return a.key < b.key; });
   };
   drop_empty(before);
   drop_empty(now);
@@ -216,7 +260,7 @@ void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
   for (bool grew = true; grew && !grid.all();) {
     grew = false;
     for (const FramebufferRect& r : regions)
-      if (grid.touches(r)) grew = grid.mark(r) || grew;
+      if (grid.touches(r)) grew = grid.mark(grid.dirty_bounds(r)) || grew;
     for (const DrawnTriangle& t : triangles)
       if (!t.box.empty() && grid.touches(t.box)) grew = grid.mark(t.box) || grew;
   }
@@ -308,10 +352,16 @@ bool PartialPainter::ensure_gl() {
 }
 
 void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int framebuffer_height) {
+  if (framebuffer_width != grid_.width() || framebuffer_height != grid_.height()) {
+    // The driver makes a new back buffer of the new size when it notices, which may be a
+    // frame or two after the size is reported: repaint whole until it has settled.
+    full_frames_left_ = kFullFramesAfterResize;
+  }
   grid_.begin(framebuffer_width, framebuffer_height);
   now_ = drawn_triangles(data, framebuffer_height);
-  full_ = !partial() || invalidated_ || grid_.all();
+  full_ = !partial() || invalidated_ || full_frames_left_ > 0 || grid_.all();
   invalidated_ = false;
+  full_frames_left_ = std::max(0, full_frames_left_ - 1);
   if (full_) {
     grid_.mark_all();
   } else {
@@ -320,6 +370,7 @@ void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int fra
 }
 
 void PartialPainter::close(const std::vector<FramebufferRect>& view_regions) {
+  view_regions_ = view_regions;
   if (!full_) close_damage(grid_, now_, view_regions);
 }
 
@@ -336,15 +387,19 @@ void PartialPainter::paint_background(const ImVec4& colour) {
   }
   last_dirty_pixels_ = 0;
   if (!grid_.any()) return;
-  const std::vector<FramebufferRect> rects = grid_.rects();
+  // The views cover their regions whole: no fill under them.
+  DamageGrid fill = grid_;
+  for (const FramebufferRect& v : view_regions_) fill.clear_inside(v);
+  const std::vector<FramebufferRect> rects = fill.rects();
   std::vector<float> corners;
   corners.reserve(rects.size() * 12);
   for (const FramebufferRect& r : rects) {
     const auto x0 = static_cast<float>(r.x), y0 = static_cast<float>(r.y);
     const auto x1 = static_cast<float>(r.x + r.width), y1 = static_cast<float>(r.y + r.height);
     corners.insert(corners.end(), {x0, y0, x1, y0, x1, y1, x0, y0, x1, y1, x0, y1});
-    last_dirty_pixels_ += r.width * r.height;
   }
+  last_dirty_pixels_ = grid_.dirty_pixels();
+  if (getenv("TIMES")) fprintf(stderr, "rects %zu\n", rects.size());
   glDisable(GL_BLEND);
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_STENCIL_TEST);
@@ -357,7 +412,7 @@ void PartialPainter::paint_background(const ImVec4& colour) {
   glBindBuffer(GL_ARRAY_BUFFER, vbo_);
   glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(corners.size() * sizeof(float)), corners.data(),
                GL_STREAM_DRAW);
-  glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(corners.size() / 2));
+  if (!getenv("NOFILL")) glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(corners.size() / 2));
   glBindVertexArray(0);
   glUseProgram(0);
 }
@@ -401,7 +456,8 @@ void PartialPainter::draw_imgui(const ImDrawData& data) {
   ImDrawData partial = data;
   partial.CmdLists = filtered_.data();
   partial.TotalIdxCount = 0;
-  for (int l = 0; l < data.CmdListsCount; ++l) partial.TotalIdxCount += filtered_[static_cast<std::size_t>(l)]->IdxBuffer.Size;
+  for (int l = 0; l < data.CmdListsCount; ++l)
+    partial.TotalIdxCount += filtered_[static_cast<std::size_t>(l)]->IdxBuffer.Size;
   ImGui_ImplOpenGL3_RenderDrawData(&partial);
 }
 

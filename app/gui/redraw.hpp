@@ -11,13 +11,14 @@
 //   touch;
 // - `mark_changes` compares two frames' keys as multisets: a triangle that appeared or went
 //   away marks the cells under its box dirty (cells of kCellPx square pixels);
-// - the 3D views mark their whole region when their picture changes;
+// - the 3D views mark the part of their region whose picture changed (the renderer reads
+//   its picture back and compares), or all of it when the region moved;
 // - `close_damage` grows the dirty cells until every triangle and view that touches them
 //   lies wholly inside them, so what is redrawn never spills onto a clean cell (no stencil
 //   is needed: on llvmpipe writing and testing one cost more than the drawing it saved);
 // - `PartialPainter` fills the dirty cells with the panel colour, the views that touch them
 //   draw, and then only the ImGui triangles that touch them, so the clean cells keep last
-//   frame's pixels exactly.
+//   frame's pixels exactly. A view repaints the box of the dirty cells on it.
 //
 // A full redraw (the first frames, a resize, new fonts, or a driver whose back buffer is not
 // known to be kept) repaints every cell. The script step `redraw-check` compares a partial
@@ -48,19 +49,29 @@ class DamageGrid {
   bool mark(const FramebufferRect& r);
   /// Whether any dirty cell overlaps r.
   bool touches(const FramebufferRect& r) const;
+  /// The box of the dirty cells within r, cut to r (empty when none).
+  FramebufferRect dirty_bounds(const FramebufferRect& r) const;
+  /// Cleans the cells that lie wholly inside r.
+  void clear_inside(const FramebufferRect& r);
   bool any() const { return dirty_count_ > 0; }
-  bool all() const { return dirty_count_ == static_cast<int>(cells_.size()); }
+  bool all() const { return dirty_count_ == columns_ * rows_; }
   /// The dirty cells as few rectangles (runs along rows, stacked where rows agree), clipped to
   /// the framebuffer.
   std::vector<FramebufferRect> rects() const;
+  /// Pixels in dirty cells (cells at the edges counted whole).
+  int dirty_pixels() const { return dirty_count_ * kCellPx * kCellPx; }
   int width() const { return width_; }
   int height() const { return height_; }
 
  private:
+  /// Visits each row of the cells r covers with the bit masks of its words; false when r
+  /// covers no cell.
+  template <typename F>
+  bool for_rows(const FramebufferRect& r, F&& f) const;
   int width_ = 0, height_ = 0;
-  int columns_ = 0, rows_ = 0;
+  int columns_ = 0, rows_ = 0, words_ = 0;  ///< words_: 64-cell words per row
   int dirty_count_ = 0;
-  std::vector<std::uint8_t> cells_;  ///< row-major from the bottom row
+  std::vector<std::uint64_t> bits_;  ///< one bit per cell, rows from the bottom
 };
 
 /// One ImGui triangle: what it draws, and the framebuffer pixels it can touch (its box, widened
@@ -78,8 +89,8 @@ std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuff
 /// multisets: equal keys pair up whatever their order).
 void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid);
 
-/// Grows the dirty cells until each triangle and each region (the views, drawn whole) that
-/// touches them lies inside them.
+/// Grows the dirty cells until each triangle that touches them lies inside them, and the
+/// dirty part of each region (a view, which repaints the box of its dirty cells) is a box.
 void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
                   const std::vector<FramebufferRect>& regions);
 
@@ -131,14 +142,17 @@ class PartialPainter {
  private:
   bool ensure_gl();
   bool allowed_ = true;
-  bool kept_ = false;         ///< the probe found the back buffer kept
+  bool kept_ = false;  ///< the probe found the back buffer kept
   bool probed_ = false;
   bool probe_pending_ = false;
   bool invalidated_ = true;
-  bool full_ = true;          ///< this frame repaints everything
+  bool full_ = true;  ///< this frame repaints everything
+  static constexpr int kFullFramesAfterResize = 3;
+  int full_frames_left_ = 0;
   int last_dirty_pixels_ = 0;
   DamageGrid grid_;
   std::vector<DrawnTriangle> before_, now_;
+  std::vector<FramebufferRect> view_regions_;
   std::vector<ImDrawList*> filtered_;
   std::vector<unsigned char> probe_;
   unsigned program_ = 0, vao_ = 0, vbo_ = 0;

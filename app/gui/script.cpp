@@ -18,8 +18,8 @@ std::string trim(const std::string& s) {
   return s.substr(b, e - b + 1);
 }
 
-const char* const kOps[] = {"frames", "click", "type",       "key",  "clipboard", "resize",
-                            "dump",   "drag",  "screenshot", "quit", "scroll",    "wait", "redraw-check"};
+const char* const kOps[] = {"frames", "click",      "type", "key",    "clipboard", "resize",      "dump",
+                            "drag",   "screenshot", "quit", "scroll", "wait",      "redraw-check"};
 
 }  // namespace
 

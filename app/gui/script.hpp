@@ -16,8 +16,9 @@
 //                       most S seconds, 60 if not given; longer fails the script)
 //   dump FILE           write the document and every card's numbers as JSON
 //   screenshot FILE     write the window as a PNG
-//   redraw-check        repaint this frame whole and fail unless it matches the frame as
-//                       drawn (which repaints only what changed; see redraw.hpp)
+//   redraw-check [P]    repaint this frame whole and fail unless it matches the frame as
+//                       drawn (which repaints only what changed; see redraw.hpp); on a
+//                       mismatch write both pictures as P-partial.png and P-full.png
 //   quit                close the window
 //
 // Blank lines and lines starting with '#' are ignored.

@@ -73,6 +73,7 @@ struct Ui {
   bool focus_intake = false;         ///< Ctrl+V was pressed outside a text field
   bool spinning = false;             ///< the body turns continuously (toolbar toggle)
   bool rebuild_fonts = false;        ///< the UI scale changed
+  bool partial_redraw = false;       ///< frames repaint only what changed (redraw.hpp)
   FramebufferRect scene_viewport;    ///< where the Scene's 3D view goes
   FramebufferRect gimbal_viewport;   ///< where the Gimbal rings go
   std::string status;                ///< one line at the foot of the toolbar ("copied ...")

@@ -125,26 +125,32 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
   // picture does not need it); the settled frame after the motion is smoothed.
   const bool moving = v.drag != DragMode::None || ui.spinning;
   renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
-  auto plan = [&](Views::Shown& sh, const FramebufferRect& rect, render::SceneState st) {
+  auto plan = [&](int slot, const FramebufferRect& rect, const render::SceneState& st) {
+    Views::Shown& sh = views.shown[slot];
+    const FramebufferRect was = sh.shown_rect;
+    const bool moved =
+        was.x != rect.x || was.y != rect.y || was.width != rect.width || was.height != rect.height;
+    // Where the view was and is no more, its picture must be painted over.
+    if (moved) damage.mark(was);
     if (rect.empty()) {
-      sh.shown_key.clear();  // gone from the window: drawn anew when it comes back
+      sh.shown_rect = {};  // gone from the window: shown whole when it comes back
       return;
     }
     sh.planned = true;
     sh.rect = rect;
     regions.push_back(rect);
-    sh.key = renderer->picture_key(st, rect.width, rect.height);
-    sh.state = std::move(st);
-    const FramebufferRect& was = sh.shown_rect;
-    const bool same_place =
-        was.x == rect.x && was.y == rect.y && was.width == rect.width && was.height == rect.height;
-    if (sh.key != sh.shown_key || !same_place) damage.mark(rect);
+    const render::RegionPart part = renderer->prepare(st, rect.width, rect.height, slot);
+    if (moved) {
+      damage.mark(rect);
+    } else if (!part.empty()) {
+      damage.mark({rect.x + part.x, rect.y + part.y, part.width, part.height});
+    }
   };
   {
     render::SceneState st = scene_state(ui, ui.scene_viewport.width, ui.scene_viewport.height);
     apply_teaching_overlay(ui, &st);
     apply_chain_overlay(ui, &st);
-    plan(views.shown[0], ui.scene_viewport, std::move(st));
+    plan(0, ui.scene_viewport, st);
   }
   {
     render::SceneState st = scene_state(ui, ui.gimbal_viewport.width, ui.gimbal_viewport.height);
@@ -154,21 +160,24 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
     st.rings = to_euler(ui.doc.pose(), rings_convention(ui));
     st.show_world_triad = false;
     st.show_grid = false;
-    plan(views.shown[1], ui.gimbal_viewport, std::move(st));
+    plan(1, ui.gimbal_viewport, st);
   }
   return regions;
 }
 
-void views_draw(Ui& ui, const DamageGrid* damage) {
+void views_draw(Ui& ui, const DamageGrid& damage) {
   Views& views = *ui.views;
   render::SceneRenderer* renderer = views.renderer.get();
   if (!renderer) return;
   const ImGuiIO& io = ImGui::GetIO();
   const int fb_h = static_cast<int>(std::lround(io.DisplaySize.y * io.DisplayFramebufferScale.y));
-  for (Views::Shown& sh : views.shown) {
-    if (!sh.planned || (damage && !damage->touches(sh.rect))) continue;
-    renderer->draw(sh.state, region_of(sh.rect, fb_h));
-    sh.shown_key = sh.key;
+  for (int slot = 0; slot < 2; ++slot) {
+    Views::Shown& sh = views.shown[slot];
+    if (!sh.planned) continue;
+    const FramebufferRect dirty = damage.dirty_bounds(sh.rect);
+    if (dirty.empty()) continue;
+    renderer->present(slot, region_of(sh.rect, fb_h),
+                      {dirty.x - sh.rect.x, dirty.y - sh.rect.y, dirty.width, dirty.height});
     sh.shown_rect = sh.rect;
   }
 }
@@ -209,7 +218,7 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
   (void)damage;
   return {};
 }
-void views_draw(Ui& ui, const DamageGrid* damage) {
+void views_draw(Ui& ui, const DamageGrid& damage) {
   (void)ui;
   (void)damage;
 }

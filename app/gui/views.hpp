@@ -36,14 +36,14 @@ namespace attiscope::gui {
 void views_init(Ui& ui);
 void views_shutdown(Ui& ui);
 /// Plans this frame's views (after the panels are laid out): makes a pending PNG export,
-/// marks in `damage` the regions of the views whose picture will differ from what the
-/// window shows there (pose, camera, model, size or place changed), and returns the regions
-/// of all views shown this frame.
+/// renders each view's picture offscreen, marks in `damage` the part of each region whose
+/// picture changed (all of it when the view moved or came back), and returns the regions of
+/// the views shown this frame.
 std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage);
-/// Draws the Scene into ui.scene_viewport and the rings into ui.gimbal_viewport
+/// Shows the Scene in ui.scene_viewport and the rings in ui.gimbal_viewport
 /// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport):
-/// each view whose region has a dirty cell in `damage`, or every view when it is null.
-void views_draw(Ui& ui, const DamageGrid* damage);
+/// in each, the box of the dirty cells of `damage` on it.
+void views_draw(Ui& ui, const DamageGrid& damage);
 /// What the views show, for test dumps (null without render/).
 nlohmann::json views_dump(const Ui& ui);
 
@@ -108,14 +108,12 @@ struct Views {
   SceneFields fields;
   std::unique_ptr<render::SceneRenderer> renderer;
   std::string init_error;  ///< why there is no renderer
-  /// This frame's plan and what the window shows, per view (0 the Scene, 1 the rings).
+  /// This frame's plan and what the window shows, per view (0 the Scene, 1 the rings; the
+  /// renderer's prepare() slots).
   struct Shown {
     bool planned = false;
-    render::SceneState state;
-    FramebufferRect rect;
-    std::string key;        ///< the renderer's picture_key of `state`
-    std::string shown_key;  ///< what the window shows in shown_rect (empty: nothing known)
-    FramebufferRect shown_rect;
+    FramebufferRect rect;        ///< this frame's region
+    FramebufferRect shown_rect;  ///< where the window shows the view's last picture (empty: nowhere)
   };
   Shown shown[2];
 #endif

@@ -10,11 +10,11 @@
 
 #include <unistd.h>
 #include <algorithm>
-#include <cstring>
 #include <chrono>
 #include <cmath>
 #include <cstdint>
 #include <cstdio>
+#include <cstring>
 #include <ctime>
 #include <filesystem>
 #include <fstream>
@@ -228,6 +228,7 @@ nlohmann::json dump_json(const Ui& ui, GLFWwindow* window) {
   j["scene_viewport"] = rect(ui.scene_viewport);
   j["gimbal_viewport"] = rect(ui.gimbal_viewport);
   j["status"] = ui.status;
+  j["redraw"] = ui.partial_redraw ? "partial" : "full";
   j["intake"] = ui.intake_listing;
   j["views"] = views_dump(ui);
   j["house"] = {{"error", ui.house.error}, {"warnings", ui.house.warnings}, {"message", ui.house.message}};
@@ -263,6 +264,21 @@ std::vector<unsigned char> read_back_buffer(int width, int height) {
   glReadBuffer(GL_BACK);
   glReadPixels(0, 0, width, height, GL_RGBA, GL_UNSIGNED_BYTE, pixels.data());
   return pixels;
+}
+
+/// "" when two RGBA pictures of width x height (rows bottom-up) agree in colour, else how
+/// many pixels differ and where the first is.
+std::string picture_difference(const std::vector<unsigned char>& a, const std::vector<unsigned char>& b,
+                               int width, int height) {
+  std::size_t differing = 0, first = 0;
+  for (std::size_t k = 0; k + 4 <= a.size() && k + 4 <= b.size(); k += 4) {
+    if (std::memcmp(&a[k], &b[k], 3) == 0) continue;
+    if (differing++ == 0) first = k / 4;
+  }
+  if (differing == 0) return "";
+  const auto w = static_cast<std::size_t>(width);
+  return std::to_string(differing) + " pixels, the first at x " + std::to_string(first % w) + ", y " +
+         std::to_string(height - 1 - static_cast<int>(first / w)) + " from the top";
 }
 
 bool write_screenshot(GLFWwindow* window, const std::string& path) {
@@ -695,13 +711,36 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     // them, the views draw into their regions (the Scene and Gimbal panels have no
     // background), then ImGui over them, so popups and tooltips stay on top.
     auto paint = [&] {
+      static double T[5];
+      static int nf = 0;
+      auto cA = Clock::now();
+      glFinish();
+      auto c0 = Clock::now();
+      T[4] += seconds(cA, c0);
       painter.plan(draw_data, fw, fh);
       painter.close(views_plan(ui, painter.grid()));
+      auto c1 = Clock::now();
       painter.paint_background(panel);
-      views_draw(ui, &painter.grid());
+      glFinish();
+      auto c2 = Clock::now();
+      views_draw(ui, painter.grid());
+      glFinish();
+      auto c3 = Clock::now();
       painter.draw_imgui(draw_data);
+      glFinish();
+      auto c4 = Clock::now();
+      T[0] += seconds(c0, c1);
+      T[1] += seconds(c1, c2);
+      T[2] += seconds(c2, c3);
+      T[3] += seconds(c3, c4);
+      if (++nf % 100 == 0 && getenv("TIMES")) {
+        fprintf(stderr, "wait %.2f plan %.2f fill %.2f views %.2f imgui %.2f\n", T[4] * 10, T[0] * 10,
+                T[1] * 10, T[2] * 10, T[3] * 10);
+        T[0] = T[1] = T[2] = T[3] = T[4] = 0;
+      }
     };
     paint();
+    ui.partial_redraw = painter.partial();
     if (opt.bench_frames > 0) glFinish();  // so the draw's own cost can be reported
     const double draw_wall = seconds(draw_start, Clock::now());
     if (opt.bench_frames > 0 && frame_index > 0)
@@ -712,16 +751,17 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       painter.invalidate();
       paint();
       const std::vector<unsigned char> whole = read_back_buffer(fw, fh);
-      std::size_t differing = 0, first = 0;
-      for (std::size_t k = 0; k < whole.size(); k += 4) {
-        if (std::memcmp(&whole[k], &partial[k], 3) == 0) continue;
-        if (differing++ == 0) first = k / 4;
-      }
       const ScriptStep& step = player.steps[player.next];
-      if (differing > 0) {
-        err << "attiscope gui: script line " << step.line << ": the partial frame differs from a full redraw in "
-            << differing << " pixels, the first at x " << first % static_cast<std::size_t>(fw) << ", y "
-            << fh - 1 - static_cast<int>(first / static_cast<std::size_t>(fw)) << " from the top\n";
+      const std::string difference = picture_difference(partial, whole, fw, fh);
+      if (!difference.empty()) {
+        if (!step.arg.empty()) {  // both pictures, for a person to compare
+          stbi_flip_vertically_on_write(1);
+          stbi_write_png((step.arg + "-partial.png").c_str(), fw, fh, 4, partial.data(), fw * 4);
+          stbi_write_png((step.arg + "-full.png").c_str(), fw, fh, 4, whole.data(), fw * 4);
+          stbi_flip_vertically_on_write(0);
+        }
+        err << "attiscope gui: script line " << step.line
+            << ": the partial frame differs from a full redraw in " << difference << "\n";
         player.failed = true;
         player.next = player.steps.size();
       } else {
@@ -817,9 +857,10 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         "  start-up: window and GL context %.1f ms, fonts and shaders %.1f ms, first frame %.1f ms\n",
         context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
     out << line;
-    std::snprintf(line, sizeof line, "  redraw: %s; median share of the window repainted %.0f%%\n",
-                  painter.partial() ? "only what changed (the back buffer is kept)" : "the whole window each frame",
-                  percentile(repainted_share, 0.5) * 100.0);
+    std::snprintf(
+        line, sizeof line, "  redraw: %s; median share of the window repainted %.0f%%\n",
+        painter.partial() ? "only what changed (the back buffer is kept)" : "the whole window each frame",
+        percentile(repainted_share, 0.5) * 100.0);
     out << line;
   }
   shutdown_track(ui);

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
+#include <cstring>
 #include <future>
 #include <map>
 #include <optional>
@@ -108,6 +109,7 @@ struct Target {
   gl::Texture color;
   gl::Renderbuffer depth;
   int width = 0, height = 0;
+  int slot = -1;        ///< the prepare() slot it serves (-1: draw())
   std::string picture;  ///< fingerprint of the scene the target holds (empty: none)
   /// The smoothed picture (made on first use): its own colour, sharing `depth`, whose
   /// stencil marks the edges; `mark_fbo` holds `depth` alone, for marking them.
@@ -484,19 +486,35 @@ struct SceneRenderer::State {
   /// views, an export), most recent first.
   std::vector<std::unique_ptr<Target>> view_targets;
   Target export_target;
-  Target& view_target(int w, int h) {
-    constexpr std::size_t kKeptTargets = 3;
-    auto it = std::find_if(view_targets.begin(), view_targets.end(),
-                           [&](const std::unique_ptr<Target>& t) { return t->width == w && t->height == h; });
+  Target& view_target(int w, int h, int slot = -1) {
+    constexpr std::size_t kKeptTargets = 4;
+    auto it = std::find_if(view_targets.begin(), view_targets.end(), [&](const std::unique_ptr<Target>& t) {
+      return t->width == w && t->height == h && t->slot == slot;
+    });
     if (it == view_targets.end()) {
       if (view_targets.size() >= kKeptTargets) view_targets.pop_back();
       view_targets.insert(view_targets.begin(), std::make_unique<Target>());
       view_targets.front()->ensure(w, h);
+      view_targets.front()->slot = slot;
     } else {
       std::rotate(view_targets.begin(), it, it + 1);
     }
     return *view_targets.front();
   }
+
+  /// What each prepare() slot showed last: its picture read back, its labels, and where
+  /// present() finds the picture.
+  struct Slot {
+    int width = 0, height = 0;
+    std::string shown;  ///< fingerprint and smoothing of `pixels`
+    std::vector<std::uint32_t> pixels;
+    std::vector<TextVertex> labels;
+    GLuint picture_fbo = 0;
+  };
+  std::map<int, Slot> slots;
+
+  /// Makes (or keeps) the picture of `state` in `t`; returns the framebuffer holding it.
+  GLuint make_picture(const SceneState& state, Target& t, int w, int h);
 
   detail::BakedFont font;
   bool font_tried = false;
@@ -1095,24 +1113,7 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
 
   // The scene, offscreen at the region's size; kept from the last draw of this size when
   // nothing in it changed.
-  SceneState sized = state;
-  sized.width_px = w;
-  sized.height_px = h;
-  std::string picture = scene_fingerprint(sized, s.palette, s.user_mesh_generation);
-  Target& t = s.view_target(w, h);
-  s.reused = s.options.reuse_unchanged && t.picture == picture;
-  if (!s.reused) {
-    glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
-    glViewport(0, 0, w, h);
-    s.render_scene(state, t);
-    t.picture = std::move(picture);
-    t.smoothed = false;
-  }
-  GLuint shown = t.fbo.get();
-  if (s.options.antialiasing == Antialiasing::Post) {
-    if (!t.smoothed) s.smooth_scene(state, t);
-    shown = t.smooth_fbo.get();
-  }
+  const GLuint shown = s.make_picture(state, s.view_target(w, h), w, h);
 
   // Into the region: a straight copy (no shading, so llvmpipe copies rows), then the labels
   // on top (unsmoothed).
@@ -1137,13 +1138,156 @@ void SceneRenderer::draw(const SceneState& state, const Region& region) {
   gl::check("draw");
 }
 
-std::string SceneRenderer::picture_key(const SceneState& state, int width, int height) const {
-  const State& s = *state_;
+GLuint SceneRenderer::State::make_picture(const SceneState& state, Target& t, int w, int h) {
   SceneState sized = state;
-  sized.width_px = width;
-  sized.height_px = height;
-  return scene_fingerprint(sized, s.palette, s.user_mesh_generation) +
-         (s.options.antialiasing == Antialiasing::Post ? "|smoothed" : "|plain");
+  sized.width_px = w;
+  sized.height_px = h;
+  std::string picture = scene_fingerprint(sized, palette, user_mesh_generation);
+  reused = options.reuse_unchanged && t.picture == picture;
+  if (!reused) {
+    glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
+    glViewport(0, 0, w, h);
+    render_scene(state, t);
+    t.picture = std::move(picture);
+    t.smoothed = false;
+  }
+  if (options.antialiasing != Antialiasing::Post) return t.fbo.get();
+  if (!t.smoothed) smooth_scene(state, t);
+  return t.smooth_fbo.get();
+}
+
+namespace {
+
+/// The box (origin bottom-left, widened by a pixel) of the label glyphs of `a` not in `b`.
+Eigen::AlignedBox2f changed_glyphs(const std::vector<TextVertex>& a, const std::vector<TextVertex>& b,
+                                   int h) {
+  Eigen::AlignedBox2f box;
+  auto same = [](const TextVertex* p, const TextVertex* q) {
+    return std::memcmp(p, q, 6 * sizeof(TextVertex)) == 0;
+  };
+  for (std::size_t i = 0; i + 6 <= a.size(); i += 6) {
+    bool found = false;
+    for (std::size_t j = 0; j + 6 <= b.size() && !found; j += 6) found = same(&a[i], &b[j]);
+    if (found) continue;
+    for (std::size_t k = i; k < i + 6; ++k)
+      box.extend(Eigen::Vector2f(a[k].x, static_cast<float>(h) - a[k].y));
+  }
+  if (!box.isEmpty()) {
+    box.min() -= Eigen::Vector2f::Constant(1.0f);
+    box.max() += Eigen::Vector2f::Constant(1.0f);
+  }
+  return box;
+}
+
+}  // namespace
+
+RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height, int slot) {
+  State& s = *state_;
+  if (width <= 0 || height <= 0) return {};
+  s.triangles = 0;
+  GLint prev_draw = 0, prev_read = 0;
+  glGetIntegerv(GL_DRAW_FRAMEBUFFER_BINDING, &prev_draw);
+  glGetIntegerv(GL_READ_FRAMEBUFFER_BINDING, &prev_read);
+  const int w = width, h = height;
+  s.collect_labels(state, w, h);
+  Target& t = s.view_target(w, h, slot);
+  State::Slot& m = s.slots[slot];
+  m.picture_fbo = s.make_picture(state, t, w, h);
+  const std::string shown =
+      t.picture + (s.options.antialiasing == Antialiasing::Post ? "|smoothed" : "|plain");
+  const RegionPart all{0, 0, w, h};
+  RegionPart part;
+  const bool fresh = m.width != w || m.height != h;
+  if (fresh || shown != m.shown) {
+    // Read the picture back (a row copy) and box the pixels that differ from the last one.
+    std::vector<std::uint32_t> now(static_cast<std::size_t>(w) * static_cast<std::size_t>(h));
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, m.picture_fbo);
+    glPixelStorei(GL_PACK_ALIGNMENT, 4);
+    glReadPixels(0, 0, w, h, GL_BGRA, GL_UNSIGNED_BYTE, now.data());
+    if (fresh) {
+      part = all;
+    } else {
+      int x0 = w, x1 = -1, y0 = h, y1 = -1;
+      for (int y = 0; y < h; ++y) {
+        const std::uint32_t* a = now.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
+        const std::uint32_t* b = m.pixels.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
+        if (std::memcmp(a, b, static_cast<std::size_t>(w) * sizeof(std::uint32_t)) == 0) continue;
+        int l = 0, r = w - 1;
+        while (a[l] == b[l]) ++l;
+        while (a[r] == b[r]) --r;
+        x0 = std::min(x0, l);
+        x1 = std::max(x1, r);
+        y0 = std::min(y0, y);
+        y1 = y;
+      }
+      if (x1 >= x0) part = {x0, y0, x1 - x0 + 1, y1 - y0 + 1};
+    }
+    m.pixels.swap(now);
+  }
+  // Labels that moved or changed: their old and new places.
+  if (!fresh) {
+    Eigen::AlignedBox2f box = changed_glyphs(s.text_vertices, m.labels, h);
+    box.extend(changed_glyphs(m.labels, s.text_vertices, h));
+    if (!box.isEmpty()) {
+      const int bx0 = std::max(0, static_cast<int>(std::floor(box.min().x())));
+      const int by0 = std::max(0, static_cast<int>(std::floor(box.min().y())));
+      const int bx1 = std::min(w, static_cast<int>(std::ceil(box.max().x())));
+      const int by1 = std::min(h, static_cast<int>(std::ceil(box.max().y())));
+      if (bx1 > bx0 && by1 > by0) {
+        if (part.empty()) {
+          part = {bx0, by0, bx1 - bx0, by1 - by0};
+        } else {
+          const int px1 = std::max(part.x + part.width, bx1), py1 = std::max(part.y + part.height, by1);
+          part.x = std::min(part.x, bx0);
+          part.y = std::min(part.y, by0);
+          part.width = px1 - part.x;
+          part.height = py1 - part.y;
+        }
+      }
+    }
+  }
+  m.width = w;
+  m.height = h;
+  m.shown = shown;
+  m.labels = s.text_vertices;
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
+  gl::check("prepare");
+  return part;
+}
+
+void SceneRenderer::present(int slot, const Region& region, const RegionPart& part) {
+  State& s = *state_;
+  auto found = s.slots.find(slot);
+  if (found == s.slots.end() || part.empty() || region.width <= 0 || region.height <= 0) return;
+  State::Slot& m = found->second;
+  GLint prev_draw = 0, prev_read = 0;
+  glGetIntegerv(GL_DRAW_FRAMEBUFFER_BINDING, &prev_draw);
+  glGetIntegerv(GL_READ_FRAMEBUFFER_BINDING, &prev_read);
+  const int w = region.width, h = region.height;
+  const int gl_x = region.x, gl_y = region.framebuffer_height - region.y - region.height;
+  const int x0 = std::max(0, part.x), y0 = std::max(0, part.y);
+  const int x1 = std::min(w, part.x + part.width), y1 = std::min(h, part.y + part.height);
+  if (x1 <= x0 || y1 <= y0) return;
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, m.picture_fbo);
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+  glDisable(GL_SCISSOR_TEST);
+  glBlitFramebuffer(x0, y0, x1, y1, gl_x + x0, gl_y + y0, gl_x + x1, gl_y + y1, GL_COLOR_BUFFER_BIT,
+                    GL_NEAREST);
+  glViewport(gl_x, gl_y, w, h);
+  glEnable(GL_SCISSOR_TEST);
+  glScissor(gl_x + x0, gl_y + y0, x1 - x0, y1 - y0);
+  glDisable(GL_DEPTH_TEST);
+  s.text_vertices = m.labels;
+  s.draw_labels(w, h);
+  glDisable(GL_SCISSOR_TEST);
+  glDisable(GL_BLEND);
+  glDepthMask(GL_TRUE);
+  glUseProgram(0);
+  glBindVertexArray(0);
+  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+  glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
+  gl::check("present");
 }
 
 Image SceneRenderer::render_image(const SceneState& state) {

@@ -37,6 +37,15 @@ struct Region {
   int framebuffer_height = 0;  ///< to flip to OpenGL's bottom-left origin
 };
 
+/// A rectangle of a region's pixels, origin bottom-left (glScissor's arguments).
+struct RegionPart {
+  int x = 0;
+  int y = 0;
+  int width = 0;
+  int height = 0;
+  bool empty() const { return width <= 0 || height <= 0; }
+};
+
 enum class Antialiasing {
   None,  ///< straight into the target
   Post,  ///< draw into an internal target, then an edge-aware smoothing pass (default)
@@ -76,10 +85,16 @@ class SceneRenderer {
   /// scissor, depth test, blending, culling, program and vertex array in GL's defaults
   /// (disabled / 0), restoring the viewport to the region.
   void draw(const SceneState& state, const Region& region);
-  /// What draw() shows for `state` in a region of width x height pixels, as a string: equal
-  /// strings, equal pictures (the antialiasing setting included). A window that repaints only
-  /// what changed compares them to skip a view that would look the same.
-  std::string picture_key(const SceneState& state, int width, int height) const;
+  /// draw() in two steps, for a window that repaints only what changed. prepare() makes the
+  /// picture draw() would show for `state` in a region of width x height pixels, offscreen,
+  /// for view `slot` (0, 1, ...: each keeps its own target and last picture), and returns the
+  /// part of the region that differs from the slot's last prepared picture and labels (all
+  /// of it the first time or at a new size). present() then copies `part` of that picture
+  /// into `region` of the framebuffer bound now and draws the labels, clipped to `part`.
+  /// Contract: between two prepares of a slot, present at least the part returned (the
+  /// window then shows the last prepared picture everywhere in the region).
+  RegionPart prepare(const SceneState& state, int width, int height, int slot);
+  void present(int slot, const Region& region, const RegionPart& part);
 
   /// Renders into the renderer's offscreen target of state.width_px x state.height_px and
   /// reads it back.
