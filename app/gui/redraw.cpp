@@ -399,7 +399,6 @@ void PartialPainter::paint_background(const ImVec4& colour) {
     corners.insert(corners.end(), {x0, y0, x1, y0, x1, y1, x0, y0, x1, y1, x0, y1});
   }
   last_dirty_pixels_ = grid_.dirty_pixels();
-  if (getenv("TIMES")) fprintf(stderr, "rects %zu\n", rects.size());
   glDisable(GL_BLEND);
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_STENCIL_TEST);
@@ -412,7 +411,7 @@ void PartialPainter::paint_background(const ImVec4& colour) {
   glBindBuffer(GL_ARRAY_BUFFER, vbo_);
   glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(corners.size() * sizeof(float)), corners.data(),
                GL_STREAM_DRAW);
-  if (!getenv("NOFILL")) glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(corners.size() / 2));
+  glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(corners.size() / 2));
   glBindVertexArray(0);
   glUseProgram(0);
 }

@@ -711,33 +711,11 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     // them, the views draw into their regions (the Scene and Gimbal panels have no
     // background), then ImGui over them, so popups and tooltips stay on top.
     auto paint = [&] {
-      static double T[5];
-      static int nf = 0;
-      auto cA = Clock::now();
-      glFinish();
-      auto c0 = Clock::now();
-      T[4] += seconds(cA, c0);
       painter.plan(draw_data, fw, fh);
       painter.close(views_plan(ui, painter.grid()));
-      auto c1 = Clock::now();
       painter.paint_background(panel);
-      glFinish();
-      auto c2 = Clock::now();
       views_draw(ui, painter.grid());
-      glFinish();
-      auto c3 = Clock::now();
       painter.draw_imgui(draw_data);
-      glFinish();
-      auto c4 = Clock::now();
-      T[0] += seconds(c0, c1);
-      T[1] += seconds(c1, c2);
-      T[2] += seconds(c2, c3);
-      T[3] += seconds(c3, c4);
-      if (++nf % 100 == 0 && getenv("TIMES")) {
-        fprintf(stderr, "wait %.2f plan %.2f fill %.2f views %.2f imgui %.2f\n", T[4] * 10, T[0] * 10,
-                T[1] * 10, T[2] * 10, T[3] * 10);
-        T[0] = T[1] = T[2] = T[3] = T[4] = 0;
-      }
     };
     paint();
     ui.partial_redraw = painter.partial();
