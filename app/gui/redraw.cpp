@@ -185,9 +185,9 @@ std::uint64_t finish(std::uint64_t h) {
 
 }  // namespace
 
-std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuffer_height) {
-  std::vector<DrawnTriangle> out;
-  out.reserve(static_cast<std::size_t>(data.TotalIdxCount / 3));
+void drawn_triangles(const ImDrawData& data, int framebuffer_height, std::vector<DrawnTriangle>* out) {
+  out->clear();
+  out->reserve(static_cast<std::size_t>(data.TotalIdxCount / 3));
   const ImVec2 off = data.DisplayPos, scale = data.FramebufferScale;
   for (int l = 0; l < data.CmdListsCount; ++l) {
     const ImDrawList& list = *data.CmdLists[l];
@@ -224,22 +224,22 @@ std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuff
           d.box = {static_cast<int>(x0), framebuffer_height - static_cast<int>(y1), static_cast<int>(x1 - x0),
                    static_cast<int>(y1 - y0)};
         }
-        out.push_back(d);
+        out->push_back(d);
       }
     }
   }
-  return out;
 }
 
-void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid) {
-  auto drop_empty = [](std::vector<DrawnTriangle>& v) {
-    v.erase(std::remove_if(v.begin(), v.end(), [](const DrawnTriangle& d) { return d.box.empty(); }),
-            v.end());
-    std::sort(v.begin(), v.end(),
-              [](const DrawnTriangle& a, const DrawnTriangle& b) { return a.key < b.key; });
-  };
-  drop_empty(before);
-  drop_empty(now);
+void sort_for_comparison(const std::vector<DrawnTriangle>& triangles, std::vector<DrawnTriangle>* out) {
+  out->clear();
+  for (const DrawnTriangle& t : triangles)
+    if (!t.box.empty()) out->push_back(t);
+  std::sort(out->begin(), out->end(),
+            [](const DrawnTriangle& a, const DrawnTriangle& b) { return a.key < b.key; });
+}
+
+void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<DrawnTriangle>& now,
+                  DamageGrid& grid) {
   std::size_t i = 0, j = 0;
   while (i < before.size() || j < now.size()) {
     if (j == now.size() || (i < before.size() && before[i].key < now[j].key)) {
@@ -358,14 +358,15 @@ void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int fra
     full_frames_left_ = kFullFramesAfterResize;
   }
   grid_.begin(framebuffer_width, framebuffer_height);
-  now_ = drawn_triangles(data, framebuffer_height);
+  drawn_triangles(data, framebuffer_height, &now_);
+  sort_for_comparison(now_, &sorted_now_);
   full_ = !partial() || invalidated_ || full_frames_left_ > 0 || grid_.all();
   invalidated_ = false;
   full_frames_left_ = std::max(0, full_frames_left_ - 1);
   if (full_) {
     grid_.mark_all();
   } else {
-    mark_changes(before_, now_, grid_);
+    mark_changes(sorted_before_, sorted_now_, grid_);
   }
 }
 
@@ -461,7 +462,7 @@ void PartialPainter::draw_imgui(const ImDrawData& data) {
 }
 
 void PartialPainter::end_frame() {
-  before_.swap(now_);
+  sorted_before_.swap(sorted_now_);
 }
 
 void PartialPainter::probe_before_swap() {

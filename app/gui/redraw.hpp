@@ -81,13 +81,17 @@ struct DrawnTriangle {
   FramebufferRect box;
 };
 
-/// The frame's triangles in draw order (those that can touch no pixel are left out, with
-/// `box` empty, so indices match the draw data's triangles).
-std::vector<DrawnTriangle> drawn_triangles(const ImDrawData& data, int framebuffer_height);
+/// The frame's triangles in draw order, into `out` (those that can touch no pixel are kept
+/// with `box` empty, so indices match the draw data's triangles).
+void drawn_triangles(const ImDrawData& data, int framebuffer_height, std::vector<DrawnTriangle>* out);
 
-/// Marks in `grid` the boxes of triangles in one frame and not the other (keys compared as
-/// multisets: equal keys pair up whatever their order).
-void mark_changes(std::vector<DrawnTriangle> before, std::vector<DrawnTriangle> now, DamageGrid& grid);
+/// The triangles that touch pixels, sorted by key, into `out`: the form mark_changes compares.
+void sort_for_comparison(const std::vector<DrawnTriangle>& triangles, std::vector<DrawnTriangle>* out);
+
+/// Marks in `grid` the boxes of triangles in one frame and not the other: both sorted by
+/// sort_for_comparison, compared as multisets (equal keys pair up whatever their order).
+void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<DrawnTriangle>& now,
+                  DamageGrid& grid);
 
 /// Grows the dirty cells until each triangle that touches them lies inside them, and the
 /// dirty part of each region (a view, which repaints the box of its dirty cells) is a box.
@@ -151,7 +155,8 @@ class PartialPainter {
   int full_frames_left_ = 0;
   int last_dirty_pixels_ = 0;
   DamageGrid grid_;
-  std::vector<DrawnTriangle> before_, now_;
+  std::vector<DrawnTriangle> now_;                         ///< this frame's, in draw order
+  std::vector<DrawnTriangle> sorted_before_, sorted_now_;  ///< sorted for comparison
   std::vector<FramebufferRect> view_regions_;
   std::vector<ImDrawList*> filtered_;
   std::vector<unsigned char> probe_;

@@ -123,8 +123,15 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
   if (v.export_request) run_export(ui);
   // While something moves, draw without the smoothing pass (it costs on llvmpipe and a moving
   // picture does not need it); the settled frame after the motion is smoothed.
-  const bool moving = v.drag != DragMode::None || ui.spinning;
+  // A pose that changed this frame and the last (a scrub, a play, a teaching step, a
+  // drag) is moving too; a single change (a typed number, a nudge) is smoothed at once.
+  const Eigen::Quaterniond pose = ui.shown_pose.value_or(ui.doc.pose()).quaternion();
+  const bool pose_changed = pose.coeffs() != views.last_pose.coeffs();
+  const bool moving = v.drag != DragMode::None || ui.spinning || (pose_changed && views.pose_changed_before);
+  views.pose_changed_before = pose_changed;
+  views.last_pose = pose;
   renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
+  v.smoothed = !moving;
   auto plan = [&](int slot, const FramebufferRect& rect, const render::SceneState& st) {
     Views::Shown& sh = views.shown[slot];
     const FramebufferRect was = sh.shown_rect;
@@ -191,6 +198,7 @@ nlohmann::json views_dump(const Ui& ui) {
                  {"target", {v.camera.target.x(), v.camera.target.y(), v.camera.target.z()}}};
   j["model"] = v.model.user_mesh ? v.user_mesh_name : render::model_info(v.model.kind).name;
   j["ghost"] = v.show_ghost;
+  j["smoothed"] = v.smoothed;
   const EulerConvention c = rings_convention(ui);
   j["rings"] = {
       {"sequence", c.sequence()},

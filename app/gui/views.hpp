@@ -82,6 +82,7 @@ struct ViewState {
   // What the Gimbal panel showed last (for dumps and tests).
   double shown_margin_deg = 0.0;
   double shown_condition_number = 0.0;
+  bool smoothed = true;  ///< this frame's views have the smoothing pass (off while moving)
 };
 
 /// The Scene panel's text fields (window state).
@@ -116,6 +117,9 @@ struct Views {
     FramebufferRect shown_rect;  ///< where the window shows the view's last picture (empty: nowhere)
   };
   Shown shown[2];
+  /// The pose the views showed last frame, and whether it had changed from the one before.
+  Eigen::Quaterniond last_pose = Eigen::Quaterniond::Identity();
+  bool pose_changed_before = false;
 #endif
 };
 

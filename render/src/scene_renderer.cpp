@@ -507,7 +507,7 @@ struct SceneRenderer::State {
   struct Slot {
     int width = 0, height = 0;
     std::string shown;  ///< fingerprint and smoothing of `pixels`
-    std::vector<std::uint32_t> pixels;
+    std::vector<std::uint32_t> pixels, scratch;
     std::vector<TextVertex> labels;
     GLuint picture_fbo = 0;
   };
@@ -1200,7 +1200,8 @@ RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height
   const bool fresh = m.width != w || m.height != h;
   if (fresh || shown != m.shown) {
     // Read the picture back (a row copy) and box the pixels that differ from the last one.
-    std::vector<std::uint32_t> now(static_cast<std::size_t>(w) * static_cast<std::size_t>(h));
+    std::vector<std::uint32_t>& now = m.scratch;  // kept, so a frame allocates nothing
+    now.resize(static_cast<std::size_t>(w) * static_cast<std::size_t>(h));
     glBindFramebuffer(GL_READ_FRAMEBUFFER, m.picture_fbo);
     glPixelStorei(GL_PACK_ALIGNMENT, 4);
     glReadPixels(0, 0, w, h, GL_BGRA, GL_UNSIGNED_BYTE, now.data());

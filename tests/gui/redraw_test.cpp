@@ -87,7 +87,10 @@ TEST(DamageGridTest, OnlyTrianglesThatChangedMarkCells) {
                                              tri(3, {20, 20, 4, 4})};
   // The same triangles in another order, one of the two equal ones gone, key 3 moved.
   const std::vector<DrawnTriangle> now = {tri(2, {8, 8, 4, 4}), tri(1, {0, 0, 4, 4}), tri(4, {40, 40, 4, 4})};
-  mark_changes(before, now, g);
+  std::vector<DrawnTriangle> sorted_before, sorted_now;
+  sort_for_comparison(before, &sorted_before);
+  sort_for_comparison(now, &sorted_now);
+  mark_changes(sorted_before, sorted_now, g);
   EXPECT_FALSE(g.touches({0, 0, 4, 4}));
   EXPECT_TRUE(g.touches({8, 8, 4, 4}));    // one copy of key 2 went away
   EXPECT_TRUE(g.touches({20, 20, 4, 4}));  // gone
@@ -95,7 +98,7 @@ TEST(DamageGridTest, OnlyTrianglesThatChangedMarkCells) {
   DamageGrid same;
   same.begin(64, 64);
   same.begin(64, 64);
-  mark_changes(before, before, same);
+  mark_changes(sorted_before, sorted_before, same);
   EXPECT_FALSE(same.any());
 }
 
@@ -147,7 +150,9 @@ TEST_F(RedrawWindowTest, PartialFramesMatchFullRedraws) {
       "key ctrl+z\nframes 2\nredraw-check\n"
       "click tab.mount\nframes 2\nredraw-check\n"
       "click tab.track\nwait 30\nframes 2\nredraw-check\n"
-      "drag track.slider 80 0\nframes 2\nredraw-check\n"
+      "drag track.slider 80 0\nframes 2\nredraw-check\ndump " +
+      path("after_scrub.json") +
+      "\n"
       "key right\nframes 2\nredraw-check\n"
       "resize 1000 700\nframes 6\nredraw-check\nclick quaternion.1\ntype 0.2\nkey enter\nframes "
       "2\nredraw-check\n"
@@ -160,6 +165,11 @@ TEST_F(RedrawWindowTest, PartialFramesMatchFullRedraws) {
   const std::string renderer =
       d["views"]["renderer"].is_string() ? d["views"]["renderer"].get<std::string>() : "";
   EXPECT_EQ(d["redraw"], "partial") << "renderer: " << renderer;
+  // The scrub moved the body in consecutive frames (drawn without smoothing); once it held
+  // still the views were smoothed again.
+  const nlohmann::json scrubbed = dump("after_scrub.json");
+  EXPECT_NE(scrubbed["track"], nlohmann::json());
+  EXPECT_EQ(scrubbed["views"]["smoothed"], true);
 }
 
 }  // namespace
