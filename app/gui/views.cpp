@@ -109,7 +109,7 @@ void views_shutdown(Ui& ui) {
   ui.views->renderer.reset();
 }
 
-std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage, bool compare) {
   Views& views = *ui.views;
   ViewState& v = views.state;
   render::SceneRenderer* renderer = views.renderer.get();
@@ -146,7 +146,7 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
     sh.planned = true;
     sh.rect = rect;
     regions.push_back(rect);
-    const render::RegionPart part = renderer->prepare(st, rect.width, rect.height, slot);
+    const render::RegionPart part = renderer->prepare(st, rect.width, rect.height, slot, compare);
     if (moved) {
       damage.mark(rect);
     } else if (!part.empty()) {
@@ -221,9 +221,10 @@ void views_init(Ui& ui) {
 void views_shutdown(Ui& ui) {
   (void)ui;
 }
-std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage) {
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage, bool compare) {
   (void)ui;
   (void)damage;
+  (void)compare;
   return {};
 }
 void views_draw(Ui& ui, const DamageGrid& damage) {

@@ -1,7 +1,7 @@
-// views.hpp: the 3D views of the window (Scene and Gimbal rings), drawn by render/ straight
-// into their regions of the window's framebuffer after the frame's clear and before ImGui
-// draws the panels (whose popups then stay on top). A view sets its own viewport, scissor
-// and depth state and clears its region if it wants another colour; the ImGui backend sets
+// views.hpp: the 3D views of the window (Scene and Gimbal rings), rendered offscreen by
+// render/ and copied into their regions of the window's framebuffer (where their picture
+// changed) after the frame's fill and before ImGui draws the panels (whose popups then stay
+// on top). A view sets its own viewport, scissor and depth state; the ImGui backend sets
 // all of its own GL state each frame, so a view need not restore any.
 //
 // The views' own state (camera, model, ghost toggle, the rings' convention, a drag in
@@ -38,8 +38,9 @@ void views_shutdown(Ui& ui);
 /// Plans this frame's views (after the panels are laid out): makes a pending PNG export,
 /// renders each view's picture offscreen, marks in `damage` the part of each region whose
 /// picture changed (all of it when the view moved or came back), and returns the regions of
-/// the views shown this frame.
-std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage);
+/// the views shown this frame. Without `compare` (a frame that repaints everything) each
+/// view's region is marked whole and its picture is not read back.
+std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage, bool compare);
 /// Shows the Scene in ui.scene_viewport and the rings in ui.gimbal_viewport
 /// (FramebufferRect: framebuffer pixels, origin bottom-left, the arguments of glViewport):
 /// in each, the box of the dirty cells of `damage` on it.

@@ -712,7 +712,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     // background), then ImGui over them, so popups and tooltips stay on top.
     auto paint = [&] {
       painter.plan(draw_data, fw, fh);
-      painter.close(views_plan(ui, painter.grid()));
+      painter.close(views_plan(ui, painter.grid(), painter.partial()));
       painter.paint_background(panel);
       views_draw(ui, painter.grid());
       painter.draw_imgui(draw_data);

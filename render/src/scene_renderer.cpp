@@ -1181,7 +1181,7 @@ Eigen::AlignedBox2f changed_glyphs(const std::vector<TextVertex>& a, const std::
 
 }  // namespace
 
-RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height, int slot) {
+RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height, int slot, bool compare) {
   State& s = *state_;
   if (width <= 0 || height <= 0) return {};
   s.triangles = 0;
@@ -1198,6 +1198,14 @@ RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height
   const RegionPart all{0, 0, w, h};
   RegionPart part;
   const bool fresh = m.width != w || m.height != h;
+  if (!compare) {
+    part = all;
+    m.width = m.height = 0;  // the next comparing prepare starts afresh
+    m.labels = s.text_vertices;
+    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
+    return part;
+  }
   if (fresh || shown != m.shown) {
     // Read the picture back (a row copy) and box the pixels that differ from the last one.
     std::vector<std::uint32_t>& now = m.scratch;  // kept, so a frame allocates nothing

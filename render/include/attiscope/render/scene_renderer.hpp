@@ -92,8 +92,9 @@ class SceneRenderer {
   /// of it the first time or at a new size). present() then copies `part` of that picture
   /// into `region` of the framebuffer bound now and draws the labels, clipped to `part`.
   /// Contract: between two prepares of a slot, present at least the part returned (the
-  /// window then shows the last prepared picture everywhere in the region).
-  RegionPart prepare(const SceneState& state, int width, int height, int slot);
+  /// window then shows the last prepared picture everywhere in the region). With `compare`
+  /// false nothing is read back (a readback stalls a GPU) and the part is the whole region.
+  RegionPart prepare(const SceneState& state, int width, int height, int slot, bool compare = true);
   void present(int slot, const Region& region, const RegionPart& part);
 
   /// Renders into the renderer's offscreen target of state.width_px x state.height_px and
