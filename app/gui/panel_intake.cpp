@@ -213,8 +213,12 @@ void show_reading(Ui& ui, const Reading& r, std::size_t index, nlohmann::json& l
 void list_readings(Ui& ui, const std::string& text) {
   nlohmann::json listing = {{"readings", nlohmann::json::array()}};
   if (text.find_first_not_of(" \t\r\n") == std::string::npos) {
-    ImGui::TextDisabled("Paste a pose (Ctrl+V): a quaternion, a matrix, a transform, angles,");
-    ImGui::TextDisabled("labelled fields, JSON or a log of many poses.");
+    // Wrapped to the panel, so a narrow tools window shows the whole hint.
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::GetStyle().Colors[ImGuiCol_TextDisabled]);
+    ImGui::TextWrapped(
+        "Paste a pose (Ctrl+V): a quaternion, a matrix, a transform, angles, labelled fields, JSON or a "
+        "log of many poses.");
+    ImGui::PopStyleColor();
     ui.intake_listing = listing;
     return;
   }
