@@ -81,6 +81,22 @@ ClosedFirst closed_parts_first(const Mesh& mesh) {
     to.insert(to.end(), mesh.indices.begin() + 3 * t, mesh.indices.begin() + 3 * t + 3);
   }
   out.closed_count = out.indices.size();
+  std::unordered_map<std::uint32_t, Eigen::AlignedBox3d> boxes;
+  for (std::size_t i = 0; i < mesh.indices.size(); ++i) {
+    const auto& v = mesh.vertices[mesh.indices[i]].position;
+    boxes[parts.find(corner[mesh.indices[i]])].extend(Eigen::Vector3d(v[0], v[1], v[2]));
+    if (boxes.size() > kMaxPartBounds) break;
+  }
+  if (boxes.size() > kMaxPartBounds) {
+    Eigen::AlignedBox3d all;
+    for (std::uint32_t i : mesh.indices) {
+      const auto& v = mesh.vertices[i].position;
+      all.extend(Eigen::Vector3d(v[0], v[1], v[2]));
+    }
+    out.part_bounds = {all};
+  } else {
+    for (const auto& [part, box] : boxes) out.part_bounds.push_back(box);
+  }
   out.indices.insert(out.indices.end(), rest.begin(), rest.end());
   return out;
 }

@@ -6,6 +6,8 @@
 #include <cstdint>
 #include <vector>
 
+#include <Eigen/Geometry>
+
 #include "attiscope/render/mesh.hpp"
 
 namespace attiscope::render::detail {
@@ -20,8 +22,13 @@ namespace attiscope::render::detail {
 struct ClosedFirst {
   std::vector<std::uint32_t> indices;
   std::size_t closed_count = 0;  ///< indices[0, closed_count) are closed parts
+  /// The bounds of each part (closed or not), or of the whole mesh alone when it has more
+  /// than kMaxPartBounds parts: tighter on the screen than one box around, say, an X frame.
+  std::vector<Eigen::AlignedBox3d> part_bounds;
 };
 ClosedFirst closed_parts_first(const Mesh& mesh);
+
+inline constexpr std::size_t kMaxPartBounds = 48;
 
 /// Corners closer than this (in model units, per axis) are taken as one.
 inline constexpr double kWeldTolerance = 1e-5;

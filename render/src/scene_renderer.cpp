@@ -65,8 +65,9 @@ struct GpuMesh {
   std::size_t triangles = 0;
   /// What it covers on the screen, for the smoothing pass (smooth_tiles.hpp).
   detail::Footprint::Shape shape = detail::Footprint::Shape::Blob;
-  Eigen::AlignedBox3d box;  ///< bounds in its own coordinates
-  double ring_radius = 0.0;
+  Eigen::AlignedBox3d box;                       ///< bounds in its own coordinates
+  std::vector<Eigen::AlignedBox3d> part_bounds;  ///< closed_parts.hpp
+  double ring_radius = 0.0, tube_radius = 0.0;
 };
 
 /// A w x h colour texture stored as BGRA: given BGRA data Mesa stores it so, the layout of an
@@ -110,6 +111,7 @@ GpuMesh upload(const Mesh& mesh) {
   glBindVertexArray(0);
   g.count = static_cast<GLsizei>(order.indices.size());
   g.closed_count = static_cast<GLsizei>(order.closed_count);
+  g.part_bounds = order.part_bounds;
   for (const Vertex& v : mesh.vertices)
     g.box.extend(Eigen::Vector3d(v.position[0], v.position[1], v.position[2]));
   g.triangles = mesh.triangle_count();
@@ -130,6 +132,13 @@ struct Target {
   gl::Texture smooth;
   bool smoothed = false;                      ///< `smooth` holds the smoothed `picture`
   std::vector<detail::Footprint> footprints;  ///< of the meshes in `picture`
+  /// The tiles of the footprints (smooth_tiles.hpp): outside them `picture` is the ground.
+  std::vector<detail::PixelBox> tiles;
+  /// What is known of `color` and `smooth` while the camera holds still: the ground picture
+  /// (its key) with something else only inside `color_changed` / `smooth_changed`, so
+  /// only those need to be put back, not the whole target copied (empty key: not known).
+  std::string color_on_ground, smooth_on_ground;
+  std::vector<detail::PixelBox> color_changed, smooth_changed;
 
   void ensure(int w, int h) {
     if (fbo && w == width && h == height) return;
@@ -138,6 +147,8 @@ struct Target {
     picture.clear();
     smoothed = false;
     ground_key.clear();
+    color_on_ground.clear();
+    smooth_on_ground.clear();
     ground_fbo = gl::Framebuffer();
     ground = gl::Texture();
     smooth_fbo = gl::Framebuffer();
@@ -526,7 +537,8 @@ struct SceneRenderer::State {
     glUniform1f(mu.alpha, alpha);
     glUniform4fv(mu.glow, 1, glow.data());
     glUniform1f(mu.spec, kSpecular * (1.0f - 0.5f * glow.w()));  // a glow mutes the highlight
-    if (footprints) footprints->push_back({m.shape, m.box, m.ring_radius, linear, offset});
+    if (footprints)
+      footprints->push_back({m.shape, m.box, &m.part_bounds, m.ring_radius, m.tube_radius, linear, offset});
     glBindVertexArray(m.vao.get());
     if (m.closed_count > 0) {
       glEnable(GL_CULL_FACE);
@@ -596,7 +608,7 @@ struct SceneRenderer::State {
   /// Draws the scene into `t` (its framebuffer bound, viewport set).
   void render_scene(const SceneState& st, Target& t);
   /// Makes t.smooth: the scene of `t` with its edges smoothed.
-  void smooth_scene(const SceneState& st, Target& t);
+  void smooth_scene(Target& t);
   void collect_labels(const SceneState& st, int w, int h);
   void draw_labels(int w, int h);
 };
@@ -660,6 +672,7 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
     s.rings[i] = upload(ring);
     s.rings[i].shape = detail::Footprint::Shape::Ring;
     s.rings[i].ring_radius = kRingRadius[i];
+    s.rings[i].tube_radius = kRingTube;
   }
   s.grid = build_grid();
   gl::check("renderer creation");
@@ -745,9 +758,19 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     } else {
       triangles += grid.triangles;
     }
+    // The ground picture in: only where the last scene put meshes when it lay on the same
+    // ground (the bounds of its tiles, one row copy), else all of it.
     glBindFramebuffer(GL_READ_FRAMEBUFFER, t.ground_fbo.get());
     glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.fbo.get());
-    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    if (t.color_on_ground == t.ground_key) {
+      if (const std::optional<detail::PixelBox> b = detail::bounds_of(t.color_changed)) {
+        const int y0 = h - b->y - b->height;
+        glBlitFramebuffer(b->x, y0, b->x + b->width, y0 + b->height, b->x, y0, b->x + b->width,
+                          y0 + b->height, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+      }
+    } else {
+      glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    }
     glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
     glClear(GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
   } else {
@@ -868,6 +891,13 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
   }
   glDisable(GL_DEPTH_TEST);
   footprints = nullptr;
+  t.tiles = detail::footprint_tiles(st.camera, st.world, w, h, t.footprints);
+  if (ground_first) {
+    t.color_on_ground = t.ground_key;
+    t.color_changed = t.tiles;
+  } else {
+    t.color_on_ground.clear();
+  }
   gl::check("scene pass");
 }
 
@@ -973,20 +1003,28 @@ void SceneRenderer::State::draw_labels(int w, int h) {
   gl::check("labels");
 }
 
-void SceneRenderer::State::smooth_scene(const SceneState& st, Target& t) {
+void SceneRenderer::State::smooth_scene(Target& t) {
   const int w = t.width, h = t.height;
   t.ensure_smooth();
-  // The smoothed picture starts as a copy of the scene (rows, no shading).
-  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
-  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
-  glDisable(GL_SCISSOR_TEST);
-  glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
   t.smoothed = true;
   // Smooth only the tiles the meshes' footprints touch: the background and the grid are
   // smooth already (the grid's lines are antialiased analytically), and on a software
-  // rasteriser every post-processed pixel costs.
-  const std::vector<detail::PixelBox> boxes =
-      detail::footprint_tiles(st.camera, st.world, w, h, t.footprints);
+  // rasteriser every post-processed pixel costs. Outside the tiles the smoothed picture is
+  // the scene: when both lie on the same ground picture, the pass also goes over the tiles
+  // the last smoothed picture changed (leaving the scene's pixels there, the ground), else
+  // the smoothed picture starts as a copy of the scene (rows, no shading).
+  std::vector<detail::PixelBox> boxes = t.tiles;
+  if (!t.color_on_ground.empty() && t.smooth_on_ground == t.color_on_ground) {
+    boxes.insert(boxes.end(), t.smooth_changed.begin(), t.smooth_changed.end());
+    boxes = detail::merge_tiles(boxes, w, h);
+  } else {
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
+    glDisable(GL_SCISSOR_TEST);
+    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+  }
+  t.smooth_on_ground = t.color_on_ground;
+  t.smooth_changed = t.tiles;
   if (boxes.empty()) return;
   tile_vertices.clear();
   for (const detail::PixelBox& box : boxes) {  // two triangles a box, GL's bottom-left origin
@@ -1068,7 +1106,7 @@ GLuint SceneRenderer::State::make_picture(const SceneState& state, Target& t, in
     t.smoothed = false;
   }
   if (options.antialiasing != Antialiasing::Post) return t.fbo.get();
-  if (!t.smoothed) smooth_scene(state, t);
+  if (!t.smoothed) smooth_scene(t);
   return t.smooth_fbo.get();
 }
 

@@ -5,6 +5,8 @@
 #include <cmath>
 #include <cstdint>
 
+#include "attiscope/render/frames.hpp"
+
 namespace attiscope::render::detail {
 
 namespace {
@@ -28,11 +30,14 @@ class TileMask {
 
   bool everything() const { return everything_; }
 
-  void blob(const Footprint& f) {
+  /// Marks the tiles of a tile rectangle.
+  void box(const PixelBox& b) { mark(b.x + 0.5, b.y + 0.5, b.x + b.width - 0.5, b.y + b.height - 0.5); }
+
+  void blob(const Footprint& f, const Eigen::AlignedBox3d& box) {
     double x0 = 1e30, y0 = 1e30, x1 = -1e30, y1 = -1e30;
     for (int c = 0; c < 8; ++c) {
       Eigen::Vector2d p;
-      if (!project(f.offset + f.linear * f.box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)), &p))
+      if (!project(f.offset + f.linear * box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)), &p))
         return;
       x0 = std::min(x0, p.x());
       y0 = std::min(y0, p.y());
@@ -132,6 +137,27 @@ class TileMask {
 
 }  // namespace
 
+std::vector<PixelBox> merge_tiles(const std::vector<PixelBox>& boxes, int w, int h) {
+  if (boxes.empty() || w <= 0 || h <= 0) return {};
+  const Camera camera;  // no projection here: only the grid of tiles is used
+  const WorldFrame world = WorldFrame::enu();
+  TileMask mask(camera, world, w, h);
+  for (const PixelBox& b : boxes) mask.box(b);
+  return mask.boxes();
+}
+
+std::optional<PixelBox> bounds_of(const std::vector<PixelBox>& boxes) {
+  if (boxes.empty()) return std::nullopt;
+  int x0 = boxes[0].x, y0 = boxes[0].y, x1 = x0 + boxes[0].width, y1 = y0 + boxes[0].height;
+  for (const PixelBox& b : boxes) {
+    x0 = std::min(x0, b.x);
+    y0 = std::min(y0, b.y);
+    x1 = std::max(x1, b.x + b.width);
+    y1 = std::max(y1, b.y + b.height);
+  }
+  return PixelBox{x0, y0, x1 - x0, y1 - y0};
+}
+
 std::vector<PixelBox> footprint_tiles(const Camera& camera, const WorldFrame& world, int w, int h,
                                       const std::vector<Footprint>& footprints) {
   if (footprints.empty() || w <= 0 || h <= 0) return {};
@@ -142,7 +168,13 @@ std::vector<PixelBox> footprint_tiles(const Camera& camera, const WorldFrame& wo
     // Widest reach across, in world units, of a local extent along the given columns.
     const double sx = f.linear.col(0).norm(), sy = f.linear.col(1).norm(), sz = f.linear.col(2).norm();
     switch (f.shape) {
-      case Footprint::Shape::Blob: mask.blob(f); break;
+      case Footprint::Shape::Blob:
+        if (f.parts && !f.parts->empty()) {
+          for (const Eigen::AlignedBox3d& part : *f.parts) mask.blob(f, part);
+        } else {
+          mask.blob(f, f.box);
+        }
+        break;
       case Footprint::Shape::Stick: {
         const Eigen::Vector3d mid = f.box.center();
         const double hx = 0.5 * (hi.x() - lo.x()) * sx, hy = 0.5 * (hi.y() - lo.y()) * sy;
@@ -151,19 +183,23 @@ std::vector<PixelBox> footprint_tiles(const Camera& camera, const WorldFrame& wo
         break;
       }
       case Footprint::Shape::Ring: {
-        // How far the mesh reaches from its circle: the tube across, pivots along.
-        const double R = f.ring_radius;
-        const double out = std::max({hi.x() - R, -lo.x() - R, hi.y() - R, -lo.y() - R, 0.0});
-        const double across = std::max({hi.z(), -lo.z(), out}) + R * (1.0 - std::cos(kPi / kRingChords));
-        const double radius = across * std::max({sx, sy, sz});
+        // The tube around the circle, and the pivots where the ring meets its own axis
+        // (local x): studs as thick as the mesh is across its plane, out to its x bounds.
+        const double R = f.ring_radius, scale = std::max({sx, sy, sz});
+        const double tube = (f.tube_radius + R * (1.0 - std::cos(kPi / kRingChords))) * scale;
         Eigen::Vector3d prev = f.offset + f.linear * Eigen::Vector3d(R, 0, 0);
         for (int k = 1; k <= kRingChords; ++k) {
           const double t = 2.0 * kPi * k / kRingChords;
           const Eigen::Vector3d p =
               f.offset + f.linear * Eigen::Vector3d(R * std::cos(t), R * std::sin(t), 0);
-          mask.stick(prev, p, radius);
+          mask.stick(prev, p, tube);
           prev = p;
         }
+        const double stud = std::max(hi.z(), -lo.z()) * scale;
+        mask.stick(f.offset + f.linear * Eigen::Vector3d(hi.x(), 0, 0),
+                   f.offset + f.linear * Eigen::Vector3d(2.0 * R - hi.x(), 0, 0), stud);
+        mask.stick(f.offset + f.linear * Eigen::Vector3d(lo.x(), 0, 0),
+                   f.offset + f.linear * Eigen::Vector3d(-2.0 * R - lo.x(), 0, 0), stud);
         break;
       }
     }
