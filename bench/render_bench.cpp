@@ -1,12 +1,12 @@
 // render_bench.cpp: figures for the renderer (a benchmark that prints, not a timed test).
 //
-//   render_bench [--frames N]
+//   render_bench [--frames N] [--only TEXT]
 //
 // Prints the median and 90th percentile time of the 3D pass alone (scene, body, rings,
 // labels and the antialiasing pass) into a 900x700 region, finished with glFinish, for
 // several variants while the body turns a little every frame, the same view when nothing
 // changed (the kept scene is shown again), and the readback + PNG encode of a 1024x768
-// picture. The whole-process
+// picture. --only keeps the rows whose name holds TEXT (for a profiler). The whole-process
 // time of `attiscope render` is measured by bench/render_process.py.
 #define GL_GLEXT_PROTOTYPES 1
 #include <GL/glcorearb.h>
@@ -65,8 +65,10 @@ Figures time_it(int frames, F&& f) {
 
 int main(int argc, char** argv) {
   int frames = 40;
+  std::string only;
   for (int i = 1; i + 1 < argc; ++i) {
     if (std::strcmp(argv[i], "--frames") == 0) frames = std::max(1, std::atoi(argv[i + 1]));
+    if (std::strcmp(argv[i], "--only") == 0) only = argv[i + 1];
   }
   auto ctx = HeadlessContext::create();
   if (!ctx) {
@@ -83,11 +85,15 @@ int main(int argc, char** argv) {
   const Variant variants[] = {
       {"box, post AA", ModelKind::Box, false, false, Antialiasing::Post},
       {"box, no AA", ModelKind::Box, false, false, Antialiasing::None},
+      // The scene the 3D pass target is set for: a body and the three gimbal rings.
+      {"quadcopter + rings, post AA", ModelKind::Quadcopter, true, false, Antialiasing::Post},
+      {"quadcopter + rings, no AA", ModelKind::Quadcopter, true, false, Antialiasing::None},
       {"quadcopter + rings + ghost, post AA", ModelKind::Quadcopter, true, true, Antialiasing::Post},
       {"quadcopter + rings + ghost, no AA", ModelKind::Quadcopter, true, true, Antialiasing::None},
       {"aircraft + rings, post AA", ModelKind::Aircraft, true, false, Antialiasing::Post},
   };
   for (const Variant& v : variants) {
+    if (!only.empty() && std::string(v.name).find(only) == std::string::npos) continue;
     RendererOptions opt;
     opt.antialiasing = v.aa;
     auto r = SceneRenderer::create(opt);
@@ -135,7 +141,7 @@ int main(int argc, char** argv) {
     glDeleteFramebuffers(1, &fbo);
     glDeleteRenderbuffers(2, rb);
   }
-  {
+  if (only.empty() || std::string("render_image").find(only) != std::string::npos) {
     auto r = SceneRenderer::create();
     SceneState s;
     s.width_px = 1024;

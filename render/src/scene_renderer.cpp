@@ -15,12 +15,14 @@
 
 #include "attiscope/render/gimbal.hpp"
 #include "chain_overlay.hpp"
+#include "closed_parts.hpp"
 #include "font.hpp"
 #include "gl.hpp"
 #include "image_text.hpp"
 #include "mesh_builder.hpp"
 #include "overlays.hpp"
 #include "shaders.hpp"
+#include "smooth_tiles.hpp"
 
 namespace attiscope::render {
 
@@ -52,11 +54,20 @@ Eigen::Matrix4f to_gl(const Eigen::Matrix4d& m) {
   return m.cast<float>();
 }
 
+/// A mesh on the GPU. Its closed parts' triangles come first (closed_parts.hpp): those are
+/// drawn with back faces culled, which halves their triangles' rasterising and spares the
+/// shading of hidden back faces drawn before the front ones; the rest is drawn two-sided.
 struct GpuMesh {
   gl::VertexArray vao;
   gl::Buffer vbo, ebo;
   GLsizei count = 0;
+  GLsizei closed_count = 0;
   std::size_t triangles = 0;
+  /// What it covers on the screen, for the smoothing pass (smooth_tiles.hpp).
+  detail::Footprint::Shape shape = detail::Footprint::Shape::Blob;
+  Eigen::AlignedBox3d box;                       ///< bounds in its own coordinates
+  std::vector<Eigen::AlignedBox3d> part_bounds;  ///< closed_parts.hpp
+  double ring_radius = 0.0, tube_radius = 0.0;
 };
 
 /// A w x h colour texture stored as BGRA: given BGRA data Mesa stores it so, the layout of an
@@ -84,9 +95,10 @@ GpuMesh upload(const Mesh& mesh) {
   glBindBuffer(GL_ARRAY_BUFFER, g.vbo.get());
   glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(mesh.vertices.size() * sizeof(Vertex)),
                mesh.vertices.data(), GL_STATIC_DRAW);
+  const detail::ClosedFirst order = detail::closed_parts_first(mesh);
   glBindBuffer(GL_ELEMENT_ARRAY_BUFFER, g.ebo.get());
-  glBufferData(GL_ELEMENT_ARRAY_BUFFER, static_cast<GLsizeiptr>(mesh.indices.size() * sizeof(std::uint32_t)),
-               mesh.indices.data(), GL_STATIC_DRAW);
+  glBufferData(GL_ELEMENT_ARRAY_BUFFER, static_cast<GLsizeiptr>(order.indices.size() * sizeof(std::uint32_t)),
+               order.indices.data(), GL_STATIC_DRAW);
   glEnableVertexAttribArray(0);
   glVertexAttribPointer(0, 3, GL_FLOAT, GL_FALSE, sizeof(Vertex),
                         reinterpret_cast<const void*>(offsetof(Vertex, position)));
@@ -97,7 +109,11 @@ GpuMesh upload(const Mesh& mesh) {
   glVertexAttribPointer(2, 4, GL_FLOAT, GL_FALSE, sizeof(Vertex),
                         reinterpret_cast<const void*>(offsetof(Vertex, color)));
   glBindVertexArray(0);
-  g.count = static_cast<GLsizei>(mesh.indices.size());
+  g.count = static_cast<GLsizei>(order.indices.size());
+  g.closed_count = static_cast<GLsizei>(order.closed_count);
+  g.part_bounds = order.part_bounds;
+  for (const Vertex& v : mesh.vertices)
+    g.box.extend(Eigen::Vector3d(v.position[0], v.position[1], v.position[2]));
   g.triangles = mesh.triangle_count();
   gl::check("mesh upload");
   return g;
@@ -111,11 +127,18 @@ struct Target {
   int width = 0, height = 0;
   int slot = -1;        ///< the prepare() slot it serves (-1: draw())
   std::string picture;  ///< fingerprint of the scene the target holds (empty: none)
-  /// The smoothed picture (made on first use): its own colour, sharing `depth`, whose
-  /// stencil marks the edges; `mark_fbo` holds `depth` alone, for marking them.
-  gl::Framebuffer smooth_fbo, mark_fbo;
+  /// The smoothed picture (made on first use).
+  gl::Framebuffer smooth_fbo;
   gl::Texture smooth;
-  bool smoothed = false;  ///< `smooth` holds the smoothed `picture`
+  bool smoothed = false;                      ///< `smooth` holds the smoothed `picture`
+  std::vector<detail::Footprint> footprints;  ///< of the meshes in `picture`
+  /// The tiles of the footprints (smooth_tiles.hpp): outside them `picture` is the ground.
+  std::vector<detail::PixelBox> tiles;
+  /// What is known of `color` and `smooth` while the camera holds still: the ground picture
+  /// (its key) with something else only inside `color_changed` / `smooth_changed`, so
+  /// only those need to be put back, not the whole target copied (empty key: not known).
+  std::string color_on_ground, smooth_on_ground;
+  std::vector<detail::PixelBox> color_changed, smooth_changed;
 
   void ensure(int w, int h) {
     if (fbo && w == width && h == height) return;
@@ -124,10 +147,11 @@ struct Target {
     picture.clear();
     smoothed = false;
     ground_key.clear();
+    color_on_ground.clear();
+    smooth_on_ground.clear();
     ground_fbo = gl::Framebuffer();
     ground = gl::Texture();
     smooth_fbo = gl::Framebuffer();
-    mark_fbo = gl::Framebuffer();
     smooth = gl::Texture();
     fbo = gl::make_framebuffer();
     color = make_bgra_texture(w, h, GL_LINEAR);
@@ -161,12 +185,6 @@ struct Target {
     smooth_fbo = gl::make_framebuffer();
     glBindFramebuffer(GL_FRAMEBUFFER, smooth_fbo.get());
     glFramebufferTexture2D(GL_FRAMEBUFFER, GL_COLOR_ATTACHMENT0, GL_TEXTURE_2D, smooth.get(), 0);
-    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
-    mark_fbo = gl::make_framebuffer();
-    glBindFramebuffer(GL_FRAMEBUFFER, mark_fbo.get());
-    glFramebufferRenderbuffer(GL_FRAMEBUFFER, GL_DEPTH_STENCIL_ATTACHMENT, GL_RENDERBUFFER, depth.get());
-    glDrawBuffer(GL_NONE);
-    glReadBuffer(GL_NONE);
     gl::check("smoothing target allocation");
   }
 };
@@ -275,101 +293,6 @@ GpuMesh build_grid() {
   return g;
 }
 
-/// A pixel rectangle, top-left origin.
-struct PixelBox {
-  int x, y, width, height;
-};
-
-/// Screen bounds of everything drawn as a mesh (body and ghost by their model's bounding
-/// box, triads by their tips, rings by points around their circles), padded for tube and
-/// arrowhead radii and clipped to the view: one box for the body with its triad, ghost,
-/// rings and `extra_points` (chain triads, placed models), one for the world triad on the
-/// ground (merged when that is no larger), so the empty ground between them is not smoothed.
-/// Empty when nothing is on screen.
-std::vector<PixelBox> mesh_pixel_bounds(const SceneState& st, const Eigen::AlignedBox3d& model_box, int w,
-                                        int h, const std::vector<Eigen::Vector3d>& extra_points) {
-  constexpr double kPadPx = 3.0;
-  constexpr double kPadUnits = 0.12;  // arrowheads, ring tubes and pivots stick out this far
-  constexpr int kRingSamples = 24;
-  std::vector<Eigen::Vector3d> points = extra_points, ground_points;
-  auto add_box = [&](const Eigen::Matrix3d& world_R_mesh) {
-    for (int c = 0; c < 8; ++c) {
-      points.push_back(world_R_mesh * model_box.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
-    }
-  };
-  add_box(world_R_model(st));
-  if (st.ghost_world_R_body) {
-    SceneState g = st;
-    g.world_R_body = *st.ghost_world_R_body;
-    add_box(world_R_model(g));
-  }
-  if (st.show_body_triad) {
-    for (int a = 0; a < 3; ++a) points.push_back(body_axis_tip(st, a));
-  }
-  if (st.show_world_triad) {
-    ground_points.push_back(world_triad_origin(st));
-    for (int a = 0; a < 3; ++a) ground_points.push_back(world_axis_tip(st, a));
-  }
-  if (st.rings) {
-    const GimbalRings g = gimbal_rings(*st.rings);
-    for (int i = 0; i < 3; ++i) {
-      const Eigen::Vector3d x = g.rings[i].axis_world.normalized();
-      const Eigen::Vector3d y = g.rings[i].plane_normal_world.normalized().cross(x);
-      for (int k = 0; k < kRingSamples; ++k) {
-        const double t = 2.0 * kPi * k / kRingSamples;
-        // Sampled points lie inside the true circle between samples; scale out to cover it.
-        points.push_back((kRingRadius[i] / std::cos(kPi / kRingSamples)) *
-                         (std::cos(t) * x + std::sin(t) * y));
-      }
-      const double reach = kRingRadius[i] + 0.32 + 0.18 * i + 0.14;
-      points.push_back(x * reach);
-      points.push_back(-x * reach);
-    }
-  }
-  const double focal_px = h / (2.0 * std::tan(st.camera.fov_y_rad / 2.0));
-  const Eigen::Vector3d eye = camera_pose(st.camera, st.world).eye;
-  bool everything = false;
-  auto bounds = [&](const std::vector<Eigen::Vector3d>& pts) -> std::optional<PixelBox> {
-    if (pts.empty()) return std::nullopt;
-    double x0 = 1e30, y0 = 1e30, x1 = -1e30, y1 = -1e30;
-    for (const Eigen::Vector3d& pt : pts) {
-      const Projected p = project_to_pixel(st.camera, st.world, w, h, pt);
-      if (!p.in_front) {  // something is behind the camera: smooth everything
-        everything = true;
-        return std::nullopt;
-      }
-      const double pad = kPadPx + kPadUnits * focal_px / std::max((pt - eye).norm() - kPadUnits, 1e-3);
-      x0 = std::min(x0, p.pixel.x() - pad);
-      y0 = std::min(y0, p.pixel.y() - pad);
-      x1 = std::max(x1, p.pixel.x() + pad);
-      y1 = std::max(y1, p.pixel.y() + pad);
-    }
-    const int ix0 = std::clamp(static_cast<int>(std::floor(x0)), 0, w);
-    const int iy0 = std::clamp(static_cast<int>(std::floor(y0)), 0, h);
-    const int ix1 = std::clamp(static_cast<int>(std::ceil(x1)), 0, w);
-    const int iy1 = std::clamp(static_cast<int>(std::ceil(y1)), 0, h);
-    if (ix1 <= ix0 || iy1 <= iy0) return std::nullopt;
-    return PixelBox{ix0, iy0, ix1 - ix0, iy1 - iy0};
-  };
-  const std::optional<PixelBox> body = bounds(points), ground = bounds(ground_points);
-  if (everything) return {PixelBox{0, 0, w, h}};
-  std::vector<PixelBox> boxes;
-  if (body) boxes.push_back(*body);
-  if (ground) boxes.push_back(*ground);
-  if (boxes.size() == 2) {
-    // Overlapping boxes are fine (the pass reads the unsmoothed picture); merge only when
-    // the union costs no more pixels than the two.
-    const PixelBox& a = boxes[0];
-    const PixelBox& b = boxes[1];
-    const int ux0 = std::min(a.x, b.x), uy0 = std::min(a.y, b.y);
-    const int ux1 = std::max(a.x + a.width, b.x + b.width), uy1 = std::max(a.y + a.height, b.y + b.height);
-    const long long area_union = static_cast<long long>(ux1 - ux0) * (uy1 - uy0);
-    const long long area_sum =
-        static_cast<long long>(a.width) * a.height + static_cast<long long>(b.width) * b.height;
-    if (area_union <= area_sum) boxes = {PixelBox{ux0, uy0, ux1 - ux0, uy1 - uy0}};
-  }
-  return boxes;
-}
 /// Everything of a SceneState that shows in the offscreen scene, as bytes: two states with
 /// the same fingerprint (and the same palette and meshes) give the same picture, so a view
 /// whose pose, camera, size and overlays did not change is not drawn again.
@@ -472,9 +395,14 @@ struct SceneRenderer::State {
   std::size_t triangles = 0;
   bool reused = false;  ///< the last draw showed the kept picture of an unchanged scene
 
-  gl::Program mesh_program, grid_program, edge_program, post_program, text_program;
+  gl::Program mesh_program, grid_program, smooth_program, text_program;
   MeshUniforms mu{};
-  gl::VertexArray empty_vao;
+  /// The smoothing pass's tile rectangles, as triangles in pixels.
+  gl::VertexArray tile_vao;
+  gl::Buffer tile_vbo;
+  std::vector<float> tile_vertices;
+  /// Where draw_mesh records what it drew (the target being drawn), or null.
+  std::vector<detail::Footprint>* footprints = nullptr;
   GpuMesh grid, arrow, rod;
   std::array<GpuMesh, 3> rings;
   std::map<ModelKind, GpuMesh> models;
@@ -609,8 +537,22 @@ struct SceneRenderer::State {
     glUniform1f(mu.alpha, alpha);
     glUniform4fv(mu.glow, 1, glow.data());
     glUniform1f(mu.spec, kSpecular * (1.0f - 0.5f * glow.w()));  // a glow mutes the highlight
+    if (footprints)
+      footprints->push_back({m.shape, m.box, &m.part_bounds, m.ring_radius, m.tube_radius, linear, offset});
     glBindVertexArray(m.vao.get());
-    glDrawElements(GL_TRIANGLES, m.count, GL_UNSIGNED_INT, nullptr);
+    if (m.closed_count > 0) {
+      glEnable(GL_CULL_FACE);
+      // A mirroring placement turns the winding over.
+      glFrontFace(linear.determinant() < 0.0 ? GL_CW : GL_CCW);
+      glDrawElements(GL_TRIANGLES, m.closed_count, GL_UNSIGNED_INT, nullptr);
+      glFrontFace(GL_CCW);
+      glDisable(GL_CULL_FACE);
+    }
+    if (m.count > m.closed_count) {
+      glDrawElements(
+          GL_TRIANGLES, m.count - m.closed_count, GL_UNSIGNED_INT,
+          reinterpret_cast<const void*>(static_cast<std::size_t>(m.closed_count) * sizeof(std::uint32_t)));
+    }
     triangles += m.triangles;
   }
 
@@ -666,7 +608,7 @@ struct SceneRenderer::State {
   /// Draws the scene into `t` (its framebuffer bound, viewport set).
   void render_scene(const SceneState& st, Target& t);
   /// Makes t.smooth: the scene of `t` with its edges smoothed.
-  void smooth_scene(const SceneState& st, Target& t);
+  void smooth_scene(Target& t);
   void collect_labels(const SceneState& st, int w, int h);
   void draw_labels(int w, int h);
 };
@@ -684,11 +626,11 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   if (!mesh_p) return mesh_p.error();
   auto grid_p = gl::make_program("grid", detail::kGridVertex, detail::kGridFragment);
   if (!grid_p) return grid_p.error();
-  auto post_p = gl::make_program("post", detail::kFullscreenVertex, detail::kPostFragment);
-  if (!post_p) return post_p.error();
+  auto smooth_p = gl::make_program("smooth", detail::kTileVertex, detail::kSmoothFragment);
+  if (!smooth_p) return smooth_p.error();
   s.mesh_program = std::move(mesh_p.value());
   s.grid_program = std::move(grid_p.value());
-  s.post_program = std::move(post_p.value());
+  s.smooth_program = std::move(smooth_p.value());
   const GLuint mp = s.mesh_program.get();
   s.mu = {glGetUniformLocation(mp, "u_model"),     glGetUniformLocation(mp, "u_normal_matrix"),
           glGetUniformLocation(mp, "u_view_proj"), glGetUniformLocation(mp, "u_eye"),
@@ -696,7 +638,13 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
           glGetUniformLocation(mp, "u_fill"),      glGetUniformLocation(mp, "u_tint"),
           glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow"),
           glGetUniformLocation(mp, "u_half"),      glGetUniformLocation(mp, "u_spec")};
-  s.empty_vao = gl::make_vertex_array();
+  s.tile_vao = gl::make_vertex_array();
+  s.tile_vbo = gl::make_buffer();
+  glBindVertexArray(s.tile_vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, s.tile_vbo.get());
+  glEnableVertexAttribArray(0);
+  glVertexAttribPointer(0, 2, GL_FLOAT, GL_FALSE, 2 * sizeof(float), nullptr);
+  glBindVertexArray(0);
 
   // Unit arrow along +z: shaft to 0.84, cone to 1 (radii scale with the arrow's thickness).
   Mesh arrow;
@@ -705,10 +653,12 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   ab.cylinder(Eigen::Vector3d::Zero(), Eigen::Vector3d(0, 0, 0.84), 0.022, 12, white);
   ab.cone(Eigen::Vector3d(0, 0, 0.82), Eigen::Vector3d(0, 0, 1.0), 0.062, 16, white);
   s.arrow = upload(arrow);
+  s.arrow.shape = detail::Footprint::Shape::Stick;
   Mesh rod;
   detail::MeshBuilder rb(&rod);
   rb.cylinder(Eigen::Vector3d(0, 0, -1), Eigen::Vector3d(0, 0, 1), 1.0, 10, white);
   s.rod = upload(rod);
+  s.rod.shape = detail::Footprint::Shape::Stick;
   for (int i = 0; i < 3; ++i) {
     Mesh ring;
     detail::MeshBuilder b(&ring);
@@ -720,6 +670,9 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
                  Eigen::Vector3d(sgn * (kRingRadius[i] + 0.07), 0, 0), 0.055, 12, white);
     }
     s.rings[i] = upload(ring);
+    s.rings[i].shape = detail::Footprint::Shape::Ring;
+    s.rings[i].ring_radius = kRingRadius[i];
+    s.rings[i].tube_radius = kRingTube;
   }
   s.grid = build_grid();
   gl::check("renderer creation");
@@ -735,6 +688,8 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
   eye = pose.eye;
   view_proj = to_gl(projection_matrix(st.camera, w, h) * view_matrix(st.camera, world));
   const Eigen::Vector3d up = world.up.normalized();
+  t.footprints.clear();
+  footprints = &t.footprints;
 
   // Background: a plain clear of the whole offscreen target. llvmpipe fills a whole buffer's
   // colour, depth and stencil together at memory speed (about 0.5 ms for 900x700 here),
@@ -803,9 +758,19 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     } else {
       triangles += grid.triangles;
     }
+    // The ground picture in: only where the last scene put meshes when it lay on the same
+    // ground (the bounds of its tiles, one row copy), else all of it.
     glBindFramebuffer(GL_READ_FRAMEBUFFER, t.ground_fbo.get());
     glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.fbo.get());
-    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    if (t.color_on_ground == t.ground_key) {
+      if (const std::optional<detail::PixelBox> b = detail::bounds_of(t.color_changed)) {
+        const int y0 = h - b->y - b->height;
+        glBlitFramebuffer(b->x, y0, b->x + b->width, y0 + b->height, b->x, y0, b->x + b->width,
+                          y0 + b->height, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+      }
+    } else {
+      glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
+    }
     glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
     glClear(GL_DEPTH_BUFFER_BIT | GL_STENCIL_BUFFER_BIT);
   } else {
@@ -925,6 +890,14 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     glDisable(GL_BLEND);
   }
   glDisable(GL_DEPTH_TEST);
+  footprints = nullptr;
+  t.tiles = detail::footprint_tiles(st.camera, st.world, w, h, t.footprints);
+  if (ground_first) {
+    t.color_on_ground = t.ground_key;
+    t.color_changed = t.tiles;
+  } else {
+    t.color_on_ground.clear();
+  }
   gl::check("scene pass");
 }
 
@@ -1030,71 +1003,52 @@ void SceneRenderer::State::draw_labels(int w, int h) {
   gl::check("labels");
 }
 
-void SceneRenderer::State::smooth_scene(const SceneState& st, Target& t) {
+void SceneRenderer::State::smooth_scene(Target& t) {
   const int w = t.width, h = t.height;
   t.ensure_smooth();
-  // The smoothed picture starts as a copy of the scene (rows, no shading).
-  glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
-  glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
-  glDisable(GL_SCISSOR_TEST);
-  glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
   t.smoothed = true;
-  // Smooth only the pixels the meshes can cover: the background and the grid are smooth
-  // already (the grid's lines are antialiased analytically), and on a software rasteriser
-  // every post-processed pixel costs.
-  std::vector<Eigen::Vector3d> extra = chain_points(st);
-  for (const PlacedModel& p : st.props) {
-    const Eigen::AlignedBox3d b = model_box(ModelChoice{p.kind, false});
-    for (int c = 0; c < 8; ++c)
-      extra.push_back(p.offset + p.world_R_model * b.corner(static_cast<Eigen::AlignedBox3d::CornerType>(c)));
+  // Smooth only the tiles the meshes' footprints touch: the background and the grid are
+  // smooth already (the grid's lines are antialiased analytically), and on a software
+  // rasteriser every post-processed pixel costs. Outside the tiles the smoothed picture is
+  // the scene: when both lie on the same ground picture, the pass also goes over the tiles
+  // the last smoothed picture changed (leaving the scene's pixels there, the ground), else
+  // the smoothed picture starts as a copy of the scene (rows, no shading).
+  std::vector<detail::PixelBox> boxes = t.tiles;
+  if (!t.color_on_ground.empty() && t.smooth_on_ground == t.color_on_ground) {
+    boxes.insert(boxes.end(), t.smooth_changed.begin(), t.smooth_changed.end());
+    boxes = detail::merge_tiles(boxes, w, h);
+  } else {
+    glBindFramebuffer(GL_READ_FRAMEBUFFER, t.fbo.get());
+    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, t.smooth_fbo.get());
+    glDisable(GL_SCISSOR_TEST);
+    glBlitFramebuffer(0, 0, w, h, 0, 0, w, h, GL_COLOR_BUFFER_BIT, GL_NEAREST);
   }
-  const std::vector<PixelBox> boxes = mesh_pixel_bounds(st, model_box(st.model), w, h, extra);
+  t.smooth_on_ground = t.color_on_ground;
+  t.smooth_changed = t.tiles;
   if (boxes.empty()) return;
-  if (!edge_program) {  // made on first use, like the text program
-    auto edge_p = gl::make_program("edge", detail::kFullscreenVertex, detail::kEdgeFragment);
-    if (!edge_p) {
-      warnings.push_back(edge_p.error().describe());
-      return;
-    }
-    edge_program = std::move(edge_p.value());
+  tile_vertices.clear();
+  for (const detail::PixelBox& box : boxes) {  // two triangles a box, GL's bottom-left origin
+    const float x0 = static_cast<float>(box.x), x1 = static_cast<float>(box.x + box.width);
+    const float y0 = static_cast<float>(h - box.y - box.height), y1 = static_cast<float>(h - box.y);
+    tile_vertices.insert(tile_vertices.end(), {x0, y0, x1, y0, x1, y1, x0, y0, x1, y1, x0, y1});
   }
+  glBindVertexArray(tile_vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, tile_vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(tile_vertices.size() * sizeof(float)),
+               tile_vertices.data(), GL_STREAM_DRAW);
   glViewport(0, 0, w, h);
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_BLEND);
-  glEnable(GL_SCISSOR_TEST);
-  glEnable(GL_STENCIL_TEST);
   glActiveTexture(GL_TEXTURE0);
   glBindTexture(GL_TEXTURE_2D, t.color.get());
-  glBindVertexArray(empty_vao.get());
-  auto cover_boxes = [&] {
-    for (const PixelBox& box : boxes) {
-      glScissor(box.x, h - box.y - box.height, box.width, box.height);
-      glDrawArrays(GL_TRIANGLES, 0, 3);
-    }
-  };
-  // Mark the edge pixels in the stencil (the scene pass cleared it and does not use it).
-  glBindFramebuffer(GL_FRAMEBUFFER, t.mark_fbo.get());
-  const GLuint ep = edge_program.get();
-  glUseProgram(ep);
-  glUniform1i(glGetUniformLocation(ep, "u_scene"), 0);
-  glStencilMask(0xFF);
-  glStencilFunc(GL_ALWAYS, 1, 0xFF);
-  glStencilOp(GL_KEEP, GL_KEEP, GL_REPLACE);
-  cover_boxes();
-  // Blend them, under an early stencil test: unmarked blocks of pixels are not shaded.
   glBindFramebuffer(GL_FRAMEBUFFER, t.smooth_fbo.get());
-  const GLuint pp = post_program.get();
-  glUseProgram(pp);
-  glUniform1i(glGetUniformLocation(pp, "u_scene"), 0);
-  glUniform2f(glGetUniformLocation(pp, "u_texel"), 1.0f / static_cast<float>(w),
+  const GLuint sp = smooth_program.get();
+  glUseProgram(sp);
+  glUniform1i(glGetUniformLocation(sp, "u_scene"), 0);
+  glUniform2f(glGetUniformLocation(sp, "u_size"), static_cast<float>(w), static_cast<float>(h));
+  glUniform2f(glGetUniformLocation(sp, "u_texel"), 1.0f / static_cast<float>(w),
               1.0f / static_cast<float>(h));
-  glStencilMask(0x00);
-  glStencilFunc(GL_EQUAL, 1, 0xFF);
-  glStencilOp(GL_KEEP, GL_KEEP, GL_KEEP);
-  cover_boxes();
-  glStencilMask(0xFF);
-  glDisable(GL_STENCIL_TEST);
-  glDisable(GL_SCISSOR_TEST);
+  glDrawArrays(GL_TRIANGLES, 0, static_cast<GLsizei>(tile_vertices.size() / 2));
   glBindTexture(GL_TEXTURE_2D, 0);
   gl::check("smoothing pass");
 }
@@ -1152,7 +1106,7 @@ GLuint SceneRenderer::State::make_picture(const SceneState& state, Target& t, in
     t.smoothed = false;
   }
   if (options.antialiasing != Antialiasing::Post) return t.fbo.get();
-  if (!t.smoothed) smooth_scene(state, t);
+  if (!t.smoothed) smooth_scene(t);
   return t.smooth_fbo.get();
 }
 

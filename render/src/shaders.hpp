@@ -62,13 +62,12 @@ void main() {
 }
 )";
 
-// A full-screen triangle from gl_VertexID (no vertex buffer).
-inline const char* kFullscreenVertex = R"(#version 330 core
-out vec2 v_uv;
+// Rectangles given in pixels (GL's bottom-left origin): the smoothing pass's tiles.
+inline const char* kTileVertex = R"(#version 330 core
+layout(location = 0) in vec2 a_pixel;
+uniform vec2 u_size;
 void main() {
-  vec2 p = vec2(float((gl_VertexID << 1) & 2), float(gl_VertexID & 2));
-  v_uv = p;
-  gl_Position = vec4(p * 2.0 - 1.0, 0.0, 1.0);
+  gl_Position = vec4(a_pixel / u_size * 2.0 - 1.0, 0.0, 1.0);
 }
 )";
 
@@ -138,21 +137,26 @@ void main() {
 }
 )";
 
-// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper), in two passes so
-// that a software rasteriser shades only the edges. llvmpipe runs both sides of a branch
-// and a discard does not end the shader early, but it does skip a block of pixels whose
-// early stencil test fails: so the first pass (kEdgeFragment) only looks for edges, by the
-// luma range of a pixel and its four diagonal neighbours, and marks them in the stencil
-// (flat pixels are discarded); the second (kPostFragment) runs under a stencil test on the
-// marked pixels, finds the local edge direction from the four diagonals and blends two taps
-// along it (the paper's narrow blend; its wider four-tap blend doubled the pass's cost for a
-// barely visible gain on our flat-shaded models). Both read the unsmoothed scene.
-inline const char* kEdgeFragment = R"(#version 330 core
+// Edge-aware smoothing after Lottes 2009 ("FXAA", NVIDIA white paper), run on the tiles
+// around the meshes only (smooth_tiles.hpp). A pixel is an edge when the luma range of it and
+// its four diagonal neighbours is at least kFlat and a mesh covers one of them (alpha is the
+// meshes' cover: 1; 254 / 255 on the background and the grid, which are smooth already);
+// an edge pixel blends two taps along the local edge direction found from the diagonals
+// (the paper's narrow blend; its wider four-tap blend doubled the pass's cost for a barely
+// visible gain on our flat-shaded models), any other keeps its colour. One pass: llvmpipe
+// runs both sides of a branch, and an earlier pass that only marked the edges in the
+// stencil, so that a second pass could blend under an early stencil test, cost as much as
+// the blend itself.
+inline const char* kSmoothFragment = R"(#version 330 core
 uniform sampler2D u_scene;
+uniform vec2 u_texel;    // 1 / size
 out vec4 o_color;
 const vec3 kLuma = vec3(0.299, 0.587, 0.114);
 const float kFlat = 1.0 / 24.0;  // luma range below which nothing is smoothed
 const float kMeshCover = 0.998;  // between the uncovered alpha (254 / 255) and 1
+const float kReduceMin = 1.0 / 128.0;
+const float kReduceMul = 1.0 / 8.0;
+const float kSpanMax = 8.0;
 void main() {
   // Unfiltered fetches at texel centres (cheap on a software rasteriser).
   ivec2 p = ivec2(gl_FragCoord.xy);
@@ -166,35 +170,15 @@ void main() {
   float lsw = dot(sw.rgb, kLuma), lse = dot(se.rgb, kLuma);
   float lmin = min(lm, min(min(lnw, lne), min(lsw, lse)));
   float lmax = max(lm, max(max(lnw, lne), max(lsw, lse)));
-  // Alpha is the meshes' cover (1; 254 / 255 on the background and the grid, already smooth).
   float cover = max(m.a, max(max(nw.a, ne.a), max(sw.a, se.a)));
-  if (lmax - lmin < kFlat || cover < kMeshCover) discard;
-  o_color = vec4(0.0);
-}
-)";
-
-inline const char* kPostFragment = R"(#version 330 core
-uniform sampler2D u_scene;
-uniform vec2 u_texel;    // 1 / size
-out vec4 o_color;
-const vec3 kLuma = vec3(0.299, 0.587, 0.114);
-const float kReduceMin = 1.0 / 128.0;
-const float kReduceMul = 1.0 / 8.0;
-const float kSpanMax = 8.0;
-void main() {
-  ivec2 p = ivec2(gl_FragCoord.xy);
-  ivec2 hi = textureSize(u_scene, 0) - 1;
-  float lnw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, -1), ivec2(0), hi), 0).rgb, kLuma);
-  float lne = dot(texelFetch(u_scene, clamp(p + ivec2(1, -1), ivec2(0), hi), 0).rgb, kLuma);
-  float lsw = dot(texelFetch(u_scene, clamp(p + ivec2(-1, 1), ivec2(0), hi), 0).rgb, kLuma);
-  float lse = dot(texelFetch(u_scene, clamp(p + ivec2(1, 1), ivec2(0), hi), 0).rgb, kLuma);
   vec2 uv = (vec2(p) + 0.5) * u_texel;
   vec2 dir = vec2(-((lnw + lne) - (lsw + lse)), (lnw + lsw) - (lne + lse));
   float reduce = max((lnw + lne + lsw + lse) * 0.25 * kReduceMul, kReduceMin);
   float rcp_min = 1.0 / (min(abs(dir.x), abs(dir.y)) + reduce);
   dir = clamp(dir * rcp_min, vec2(-kSpanMax), vec2(kSpanMax)) * u_texel;
   vec3 a = 0.5 * (texture(u_scene, uv + dir * (1.0 / 3.0 - 0.5)).rgb + texture(u_scene, uv + dir * (2.0 / 3.0 - 0.5)).rgb);
-  o_color = vec4(a, 1.0);
+  bool edge = lmax - lmin >= kFlat && cover >= kMeshCover;
+  o_color = edge ? vec4(a, 1.0) : m;
 }
 )";
 

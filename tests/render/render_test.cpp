@@ -122,6 +122,40 @@ TEST_F(RenderTest, KeptSceneIsReusedOnlyWhenNothingChanged) {
 // A 90-degree turn about world z takes the body x axis onto the world y axis (R_z(90) e_x =
 // e_y, the active rotation of design.md), so its tip must be drawn where the identity pose
 // drew the y tip, and in x red where that picture had y green.
+// A view keeps its last picture and puts back only what the meshes covered (the ground
+// picture shows elsewhere): a picture drawn after other poses, with and without smoothing,
+// must equal the same picture drawn by a renderer with no history, pixel for pixel.
+TEST_F(RenderTest, PictureAfterOtherPosesEqualsAFreshOne) {
+  auto pose = [](double yaw, double pitch, double roll) {
+    SceneState s;
+    s.width_px = 320;
+    s.height_px = 240;
+    s.model.kind = ModelKind::Quadcopter;
+    s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(yaw, pitch, roll) * kDeg);
+    s.rings = to_euler(s.world_R_body, EulerConvention{});
+    s.camera.distance = 8.6;
+    return s;
+  };
+  auto history = SceneRenderer::create();
+  ASSERT_TRUE(history.ok()) << history.error().describe();
+  SceneRenderer& r = *history.value();
+  (void)r.render_image(pose(30, 20, 10));
+  const Image second = r.render_image(pose(95, -40, 60));  // the meshes moved far
+  r.set_antialiasing(Antialiasing::None);
+  (void)r.render_image(pose(-60, 10, -20));
+  r.set_antialiasing(Antialiasing::Post);
+  SceneState last = pose(10, 70, 0);
+  last.ghost_world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(40, 25, 5) * kDeg);
+  const Image fourth = r.render_image(last);
+
+  auto fresh = SceneRenderer::create();
+  ASSERT_TRUE(fresh.ok()) << fresh.error().describe();
+  EXPECT_EQ(fresh.value()->render_image(pose(95, -40, 60)).rgba, second.rgba);
+  auto fresh_last = SceneRenderer::create();
+  ASSERT_TRUE(fresh_last.ok()) << fresh_last.error().describe();
+  EXPECT_EQ(fresh_last.value()->render_image(last).rgba, fourth.rgba);
+}
+
 TEST_F(RenderTest, QuarterTurnAboutWorldZMovesXTipToYTip) {
   // Views in which no part of the box can hide the tips (it reaches 0.78 from its centre).
   for (ViewPreset view : {ViewPreset::Top, ViewPreset::Front, ViewPreset::Bottom}) {

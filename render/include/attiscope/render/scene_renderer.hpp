@@ -9,9 +9,11 @@
 //  - draw(): into a region of the framebuffer bound now (the window's). The scene is drawn
 //    into an offscreen target of the region's size (one whole-buffer clear, which llvmpipe
 //    does at memory speed, where a scissored clear or a background quad is shaded pixel by
-//    pixel), smoothed offscreen (edges marked in the stencil, then blended under an early
-//    stencil test, so only edge pixels are shaded), copied into the region by a blit (a
-//    row copy, no shading, no blending, unlike an ImGui::Image quad) and labelled in place.
+//    pixel), smoothed offscreen (only over the tiles the drawn meshes' footprints touch),
+//    copied into the region by a blit (a row copy, no shading, no blending, unlike an
+//    ImGui::Image quad) and labelled in place. Closed meshes are drawn with back faces
+//    culled. While the camera holds still, only the tiles the last picture's meshes covered
+//    are put back from the kept ground picture.
 //    An unchanged scene is neither drawn nor smoothed again (RendererOptions::reuse_unchanged);
 //  - render_image(): the same into its own export target, read back.
 #pragma once
