@@ -10,11 +10,14 @@
 //    into an offscreen target of the region's size (one whole-buffer clear, which llvmpipe
 //    does at memory speed, where a scissored clear or a background quad is shaded pixel by
 //    pixel), smoothed offscreen (only over the tiles the drawn meshes' footprints touch),
-//    copied into the region by a blit (a row copy, no shading, no blending, unlike an
-//    ImGui::Image quad) and labelled in place. Closed meshes are drawn with back faces
-//    culled. While the camera holds still, only the tiles the last picture's meshes covered
-//    are put back from the kept ground picture.
-//    An unchanged scene is neither drawn nor smoothed again (RendererOptions::reuse_unchanged);
+//    copied into the region by a blit (no blending, unlike an ImGui::Image quad; into an X
+//    window, whose rows run top-down, llvmpipe still shades it, about 4 ns a pixel) and
+//    labelled in place. Closed meshes are drawn with back faces culled. While the camera
+//    holds still, only the tiles the last picture's meshes covered are put back from the
+//    kept ground picture.
+//    An unchanged scene is neither drawn nor smoothed again (RendererOptions::reuse_unchanged).
+//    prepare() + present() split draw() for a window that repaints only what changed: the
+//    picture is read back and compared, and only the part that changed is copied in;
 //  - render_image(): the same into its own export target, read back.
 #pragma once
 
