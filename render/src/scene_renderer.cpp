@@ -45,7 +45,7 @@ constexpr float kGhostAlpha = 0.36f;
 constexpr float kGhostTint = 0.55f;
 constexpr float kHighlightGlow = 0.45f;
 /// Alpha of the scene's pixels no mesh covers: one step below opaque in 8 bits (see
-/// kPostFragment's kMeshCover).
+/// kSmoothFragment's kMeshCover).
 constexpr float kUncoveredAlpha = 254.0f / 255.0f;
 /// Strength of the key light's highlight on the meshes.
 constexpr float kSpecular = 0.22f;
