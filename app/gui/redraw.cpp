@@ -311,7 +311,7 @@ void read_probe_rows(int width, int height, std::vector<unsigned char>* out) {
 }  // namespace
 
 PartialPainter::~PartialPainter() {
-  for (ImDrawList* l : filtered_) IM_DELETE(l);
+  release();
 }
 
 bool PartialPainter::driver_keeps_back_buffer() {
@@ -379,8 +379,12 @@ void PartialPainter::paint_background(const ImVec4& colour) {
   const int w = grid_.width(), h = grid_.height();
   glViewport(0, 0, w, h);
   glDisable(GL_SCISSOR_TEST);
-  full_ = full_ || grid_.all() || !ensure_gl();
-  if (full_) {
+  if (!full_ && !ensure_gl()) {  // no fill shader: this frame repaints everything
+    full_ = true;
+    grid_.mark_all();
+  }
+  if (full_ || grid_.all()) {
+    full_ = true;
     glClearColor(colour.x, colour.y, colour.z, 1.0f);
     glClear(GL_COLOR_BUFFER_BIT);
     last_dirty_pixels_ = w * h;
@@ -388,7 +392,8 @@ void PartialPainter::paint_background(const ImVec4& colour) {
   }
   last_dirty_pixels_ = 0;
   if (!grid_.any()) return;
-  // The views cover their regions whole: no fill under them.
+  // A view copies in the box of its dirty cells, which holds every dirty cell inside it: no
+  // fill there.
   DamageGrid fill = grid_;
   for (const FramebufferRect& v : view_regions_) fill.clear_inside(v);
   const std::vector<FramebufferRect> rects = fill.rects();
@@ -487,6 +492,8 @@ void PartialPainter::release() {
   if (vbo_ != 0) glDeleteBuffers(1, &vbo_);
   if (vao_ != 0) glDeleteVertexArrays(1, &vao_);
   program_ = vao_ = vbo_ = 0;
+  for (ImDrawList* l : filtered_) IM_DELETE(l);
+  filtered_.clear();
   kept_ = probed_ = false;
   invalidated_ = true;
 }
