@@ -281,22 +281,23 @@ std::string picture_difference(const std::vector<unsigned char>& a, const std::v
          std::to_string(height - 1 - static_cast<int>(first / w)) + " from the top";
 }
 
+/// Writes RGBA rows as read_back_buffer gives them (bottom-up) as an RGB PNG (top row first).
+bool write_png(const std::string& path, const std::vector<unsigned char>& rgba, int width, int height) {
+  const auto w = static_cast<std::size_t>(width);
+  std::vector<unsigned char> rgb(w * static_cast<std::size_t>(height) * 3);
+  for (int y = 0; y < height; ++y) {
+    const unsigned char* src = rgba.data() + static_cast<std::size_t>(height - 1 - y) * w * 4;
+    unsigned char* dst = rgb.data() + static_cast<std::size_t>(y) * w * 3;
+    for (std::size_t x = 0; x < w; ++x) std::copy_n(src + 4 * x, 3, dst + 3 * x);
+  }
+  return stbi_write_png(path.c_str(), width, height, 3, rgb.data(), static_cast<int>(w * 3)) != 0;
+}
+
 bool write_screenshot(GLFWwindow* window, const std::string& path) {
   int fw = 0, fh = 0;
   glfwGetFramebufferSize(window, &fw, &fh);
   if (fw <= 0 || fh <= 0) return false;
-  std::vector<unsigned char> pixels(static_cast<std::size_t>(fw) * static_cast<std::size_t>(fh) * 3);
-  glPixelStorei(GL_PACK_ALIGNMENT, 1);
-  glReadBuffer(GL_BACK);
-  glReadPixels(0, 0, fw, fh, GL_RGB, GL_UNSIGNED_BYTE, pixels.data());
-  const std::size_t row = static_cast<std::size_t>(fw) * 3;
-  for (int y = 0; y < fh / 2; ++y) {  // GL rows are bottom-up, PNG rows top-down
-    std::swap_ranges(
-        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(y)),
-        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(y + 1)),
-        pixels.begin() + static_cast<std::ptrdiff_t>(row * static_cast<std::size_t>(fh - 1 - y)));
-  }
-  return stbi_write_png(path.c_str(), fw, fh, 3, pixels.data(), static_cast<int>(row)) != 0;
+  return write_png(path, read_back_buffer(fw, fh), fw, fh);
 }
 
 /// Where a script is, and the input it is giving this frame.
@@ -733,10 +734,8 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
       const std::string difference = picture_difference(partial, whole, fw, fh);
       if (!difference.empty()) {
         if (!step.arg.empty()) {  // both pictures, for a person to compare
-          stbi_flip_vertically_on_write(1);
-          stbi_write_png((step.arg + "-partial.png").c_str(), fw, fh, 4, partial.data(), fw * 4);
-          stbi_write_png((step.arg + "-full.png").c_str(), fw, fh, 4, whole.data(), fw * 4);
-          stbi_flip_vertically_on_write(0);
+          write_png(step.arg + "-partial.png", partial, fw, fh);
+          write_png(step.arg + "-full.png", whole, fw, fh);
         }
         err << "attiscope gui: script line " << step.line
             << ": the partial frame differs from a full redraw in " << difference << "\n";

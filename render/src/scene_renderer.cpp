@@ -1149,74 +1149,57 @@ RegionPart SceneRenderer::prepare(const SceneState& state, int width, int height
   m.picture_fbo = s.make_picture(state, t, w, h);
   const std::string shown =
       t.picture + (s.options.antialiasing == Antialiasing::Post ? "|smoothed" : "|plain");
-  const RegionPart all{0, 0, w, h};
-  RegionPart part;
-  const bool fresh = m.width != w || m.height != h;
-  if (!compare) {
-    part = all;
-    m.width = m.height = 0;  // the next comparing prepare starts afresh
-    m.labels = s.text_vertices;
-    glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
-    glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
-    return part;
+  // The changed pixels as a box [min, max) of region pixels, origin bottom-left. Without a
+  // comparison (or at a new size) all of them.
+  Eigen::AlignedBox2i changed;
+  const bool fresh = !compare || m.width != w || m.height != h;
+  if (fresh) {
+    changed.extend(Eigen::Vector2i(0, 0));
+    changed.extend(Eigen::Vector2i(w, h));
   }
-  if (fresh || shown != m.shown) {
+  if (compare && (fresh || shown != m.shown)) {
     // Read the picture back (a row copy) and box the pixels that differ from the last one.
     std::vector<std::uint32_t>& now = m.scratch;  // kept, so a frame allocates nothing
     now.resize(static_cast<std::size_t>(w) * static_cast<std::size_t>(h));
     glBindFramebuffer(GL_READ_FRAMEBUFFER, m.picture_fbo);
     glPixelStorei(GL_PACK_ALIGNMENT, 4);
     glReadPixels(0, 0, w, h, GL_BGRA, GL_UNSIGNED_BYTE, now.data());
-    if (fresh) {
-      part = all;
-    } else {
-      int x0 = w, x1 = -1, y0 = h, y1 = -1;
-      for (int y = 0; y < h; ++y) {
-        const std::uint32_t* a = now.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
-        const std::uint32_t* b = m.pixels.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
-        if (std::memcmp(a, b, static_cast<std::size_t>(w) * sizeof(std::uint32_t)) == 0) continue;
-        int l = 0, r = w - 1;
-        while (a[l] == b[l]) ++l;
-        while (a[r] == b[r]) --r;
-        x0 = std::min(x0, l);
-        x1 = std::max(x1, r);
-        y0 = std::min(y0, y);
-        y1 = y;
-      }
-      if (x1 >= x0) part = {x0, y0, x1 - x0 + 1, y1 - y0 + 1};
+    for (int y = 0; y < h && !fresh; ++y) {
+      const std::uint32_t* a = now.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
+      const std::uint32_t* b = m.pixels.data() + static_cast<std::size_t>(y) * static_cast<std::size_t>(w);
+      if (std::memcmp(a, b, static_cast<std::size_t>(w) * sizeof(std::uint32_t)) == 0) continue;
+      int l = 0, r = w - 1;
+      while (a[l] == b[l]) ++l;
+      while (a[r] == b[r]) --r;
+      changed.extend(Eigen::Vector2i(l, y));
+      changed.extend(Eigen::Vector2i(r + 1, y + 1));
     }
     m.pixels.swap(now);
   }
-  // Labels that moved or changed: their old and new places.
   if (!fresh) {
+    // Labels that moved or changed: their old and new places.
     Eigen::AlignedBox2f box = changed_glyphs(s.text_vertices, m.labels, h);
     box.extend(changed_glyphs(m.labels, s.text_vertices, h));
     if (!box.isEmpty()) {
-      const int bx0 = std::max(0, static_cast<int>(std::floor(box.min().x())));
-      const int by0 = std::max(0, static_cast<int>(std::floor(box.min().y())));
-      const int bx1 = std::min(w, static_cast<int>(std::ceil(box.max().x())));
-      const int by1 = std::min(h, static_cast<int>(std::ceil(box.max().y())));
-      if (bx1 > bx0 && by1 > by0) {
-        if (part.empty()) {
-          part = {bx0, by0, bx1 - bx0, by1 - by0};
-        } else {
-          const int px1 = std::max(part.x + part.width, bx1), py1 = std::max(part.y + part.height, by1);
-          part.x = std::min(part.x, bx0);
-          part.y = std::min(part.y, by0);
-          part.width = px1 - part.x;
-          part.height = py1 - part.y;
-        }
-      }
+      changed.extend(Eigen::Vector2i(static_cast<int>(std::floor(box.min().x())),
+                                     static_cast<int>(std::floor(box.min().y()))));
+      changed.extend(Eigen::Vector2i(static_cast<int>(std::ceil(box.max().x())),
+                                     static_cast<int>(std::ceil(box.max().y()))));
     }
   }
-  m.width = w;
-  m.height = h;
+  // Without a readback the next comparing prepare starts afresh.
+  m.width = compare ? w : 0;
+  m.height = compare ? h : 0;
   m.shown = shown;
   m.labels = s.text_vertices;
   glBindFramebuffer(GL_DRAW_FRAMEBUFFER, static_cast<GLuint>(prev_draw));
   glBindFramebuffer(GL_READ_FRAMEBUFFER, static_cast<GLuint>(prev_read));
   gl::check("prepare");
-  return part;
+  if (changed.isEmpty()) return {};
+  changed = changed.intersection(Eigen::AlignedBox2i(Eigen::Vector2i(0, 0), Eigen::Vector2i(w, h)));
+  if (changed.isEmpty()) return {};
+  return {changed.min().x(), changed.min().y(), changed.max().x() - changed.min().x(),
+          changed.max().y() - changed.min().y()};
 }
 
 void SceneRenderer::present(int slot, const Region& region, const RegionPart& part) {
