@@ -15,6 +15,8 @@ import sys
 import tempfile
 import time
 
+import machine_speed
+
 
 def run(exe, env, runs, out):
     walls, cpus = [], []
@@ -38,6 +40,7 @@ def main():
         return 2
     exe = sys.argv[1]
     runs = int(sys.argv[2]) if len(sys.argv) > 2 else 15
+    machine_speed.main()
     with tempfile.TemporaryDirectory() as d:
         out = os.path.join(d, "bench.png")
         warm = dict(os.environ)

@@ -40,6 +40,7 @@ with open(path, "w") as f:
 PY
 echo "log: $samples samples, $(du -m "$log" | cut -f1) MB"
 echo "load average: $(cut -d' ' -f1-3 /proc/loadavg) on $(nproc) cores (figures scale with it)"
+/usr/bin/python3 bench/machine_speed.py
 config=$(mktemp -d)
 trap 'rm -rf "$work" "$config"' EXIT
 run() {

@@ -17,6 +17,7 @@ run() {
   fi
 }
 echo "load average: $(cut -d' ' -f1-3 /proc/loadavg) on $(nproc) cores (figures scale with it)"
+/usr/bin/python3 bench/machine_speed.py
 echo "== cold shader cache (MESA_SHADER_CACHE_DISABLE=true)"
 for i in 1 2 3; do
   XDG_CONFIG_HOME=$config MESA_SHADER_CACHE_DISABLE=true run "$exe" gui --bench "$frames"
