@@ -93,6 +93,10 @@ void PlotPicture::show(ImDrawList* dl, ImVec2 min, ImVec2 max) const {
   dl->AddCallback(ImDrawCallback_ResetRenderState, nullptr);
 }
 
+ImDrawCallback PlotPicture::opaque_callback() {
+  return disable_blending;
+}
+
 void PlotPicture::release() {
   if (framebuffer_ != 0) glDeleteFramebuffers(1, &framebuffer_);
   if (texture_ != 0) glDeleteTextures(1, &texture_);

@@ -29,6 +29,9 @@ class PlotPicture {
   void show(ImDrawList* dl, ImVec2 min, ImVec2 max) const;
   /// Frees the texture and framebuffer.
   void release();
+  /// The draw callback show() puts before its quad: what follows it until the next callback
+  /// is drawn without blending, so covers what lies under it (redraw.hpp skips filling there).
+  static ImDrawCallback opaque_callback();
 
  private:
   bool ensure_size(int width, int height);

@@ -253,6 +253,55 @@ void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<Dr
   }
 }
 
+void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_height,
+                  std::vector<FramebufferRect>* out) {
+  out->clear();
+  if (opaque == nullptr) return;
+  const ImVec2 off = data.DisplayPos, scale = data.FramebufferScale;
+  for (int l = 0; l < data.CmdListsCount; ++l) {
+    const ImDrawList& list = *data.CmdLists[l];
+    bool in_opaque = false;
+    for (const ImDrawCmd& cmd : list.CmdBuffer) {
+      if (cmd.UserCallback != nullptr) {
+        in_opaque = cmd.UserCallback == opaque;
+        continue;
+      }
+      if (!in_opaque || cmd.ElemCount != 6) continue;
+      const ImDrawIdx* idx = list.IdxBuffer.Data + cmd.IdxOffset;
+      const ImDrawVert* vtx = list.VtxBuffer.Data + cmd.VtxOffset;
+      float x0 = vtx[idx[0]].pos.x, x1 = x0, y0 = vtx[idx[0]].pos.y, y1 = y0;
+      for (int k = 1; k < 6; ++k) {
+        x0 = std::min(x0, vtx[idx[k]].pos.x);
+        x1 = std::max(x1, vtx[idx[k]].pos.x);
+        y0 = std::min(y0, vtx[idx[k]].pos.y);
+        y1 = std::max(y1, vtx[idx[k]].pos.y);
+      }
+      // Axis-aligned: every corner at the box's edges, and the two triangles' areas adding
+      // up to the box's.
+      bool corners = true;
+      double area = 0.0;
+      for (int k = 0; k < 6; ++k) {
+        const ImVec2 p = vtx[idx[k]].pos;
+        corners = corners && (p.x == x0 || p.x == x1) && (p.y == y0 || p.y == y1);
+      }
+      for (int k = 0; k < 6; k += 3) {
+        const ImVec2 a = vtx[idx[k]].pos, b = vtx[idx[k + 1]].pos, c = vtx[idx[k + 2]].pos;
+        area += std::abs(static_cast<double>((b.x - a.x) * (c.y - a.y) - (c.x - a.x) * (b.y - a.y))) * 0.5;
+      }
+      const double box_area = static_cast<double>(x1 - x0) * static_cast<double>(y1 - y0);
+      if (!corners || std::abs(area - box_area) > 1e-3 * std::max(1.0, box_area)) continue;
+      // Pixels, top-left origin: inside both the quad and its clip rectangle, less a pixel.
+      const float px0 = std::ceil((std::max(x0, cmd.ClipRect.x) - off.x) * scale.x) + 1.0f;
+      const float py0 = std::ceil((std::max(y0, cmd.ClipRect.y) - off.y) * scale.y) + 1.0f;
+      const float px1 = std::floor((std::min(x1, cmd.ClipRect.z) - off.x) * scale.x) - 1.0f;
+      const float py1 = std::floor((std::min(y1, cmd.ClipRect.w) - off.y) * scale.y) - 1.0f;
+      if (px1 <= px0 || py1 <= py0) continue;
+      out->push_back({static_cast<int>(px0), framebuffer_height - static_cast<int>(py1),
+                      static_cast<int>(px1 - px0), static_cast<int>(py1 - py0)});
+    }
+  }
+}
+
 void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
                   const std::vector<FramebufferRect>& regions) {
   // Each pass adds what touches the damage; it ends when a pass adds nothing (at most every
@@ -360,6 +409,7 @@ void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int fra
   grid_.begin(framebuffer_width, framebuffer_height);
   drawn_triangles(data, framebuffer_height, &now_);
   sort_for_comparison(now_, &sorted_now_);
+  opaque_quads(data, opaque_callback_, framebuffer_height, &opaque_);
   full_ = !partial() || invalidated_ || full_frames_left_ > 0 || grid_.all();
   invalidated_ = false;
   full_frames_left_ = std::max(0, full_frames_left_ - 1);
@@ -387,15 +437,17 @@ void PartialPainter::paint_background(const ImVec4& colour) {
     full_ = true;
     glClearColor(colour.x, colour.y, colour.z, 1.0f);
     glClear(GL_COLOR_BUFFER_BIT);
-    last_dirty_pixels_ = w * h;
+    last_dirty_pixels_ = last_filled_pixels_ = w * h;
     return;
   }
-  last_dirty_pixels_ = 0;
+  last_dirty_pixels_ = last_filled_pixels_ = 0;
   if (!grid_.any()) return;
-  // A view copies in the box of its dirty cells, which holds every dirty cell inside it: no
-  // fill there.
+  // A view copies in the box of its dirty cells, which holds every dirty cell inside it, and
+  // an opaque quad over dirty cells is drawn whole (close()) and paints every pixel it
+  // covers: no fill there.
   DamageGrid fill = grid_;
   for (const FramebufferRect& v : view_regions_) fill.clear_inside(v);
+  for (const FramebufferRect& q : opaque_) fill.clear_inside(q);
   const std::vector<FramebufferRect> rects = fill.rects();
   std::vector<float> corners;
   corners.reserve(rects.size() * 12);
@@ -405,6 +457,7 @@ void PartialPainter::paint_background(const ImVec4& colour) {
     corners.insert(corners.end(), {x0, y0, x1, y0, x1, y1, x0, y0, x1, y1, x0, y1});
   }
   last_dirty_pixels_ = grid_.dirty_pixels();
+  last_filled_pixels_ = fill.dirty_pixels();
   glDisable(GL_BLEND);
   glDisable(GL_DEPTH_TEST);
   glDisable(GL_STENCIL_TEST);

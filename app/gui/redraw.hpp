@@ -93,6 +93,13 @@ void sort_for_comparison(const std::vector<DrawnTriangle>& triangles, std::vecto
 void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<DrawnTriangle>& now,
                   DamageGrid& grid);
 
+/// The pixels wholly covered by opaque quads: axis-aligned rectangles (two triangles, as
+/// ImDrawList::AddImage makes) drawn after the callback `opaque` and before the next one,
+/// which draws without blending. Each is cut to its clip rectangle and shrunk by a pixel, so
+/// every pixel in it is painted by the quad whatever the rasteriser's rounding.
+void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_height,
+                  std::vector<FramebufferRect>* out);
+
 /// Grows the dirty cells until each triangle that touches them lies inside them, and the
 /// dirty part of each region (a view, which repaints the box of its dirty cells) is a box.
 void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
@@ -117,6 +124,9 @@ class PartialPainter {
   bool partial() const { return allowed_ && kept_; }
   /// Next frame repaints everything (new fonts, a changed texture).
   void invalidate() { invalidated_ = true; }
+  /// The callback before quads drawn opaque (opaque_quads): the fill skips the cells they
+  /// cover, which they paint whole.
+  void set_opaque_callback(ImDrawCallback callback) { opaque_callback_ = callback; }
 
   /// Plans the frame from ImGui's draw data: the grid holds the cells that changed.
   void plan(const ImDrawData& data, int framebuffer_width, int framebuffer_height);
@@ -140,6 +150,8 @@ class PartialPainter {
 
   /// Framebuffer statistics of the last planned frame, for the benchmark.
   int last_dirty_pixels() const { return last_dirty_pixels_; }
+  /// Of those, the pixels filled with the panel colour (not under a view or an opaque quad).
+  int last_filled_pixels() const { return last_filled_pixels_; }
 
   void release();
 
@@ -153,11 +165,13 @@ class PartialPainter {
   bool full_ = true;  ///< this frame repaints everything
   static constexpr int kFullFramesAfterResize = 3;
   int full_frames_left_ = 0;
-  int last_dirty_pixels_ = 0;
+  int last_dirty_pixels_ = 0, last_filled_pixels_ = 0;
   DamageGrid grid_;
   std::vector<DrawnTriangle> now_;                         ///< this frame's, in draw order
   std::vector<DrawnTriangle> sorted_before_, sorted_now_;  ///< sorted for comparison
   std::vector<FramebufferRect> view_regions_;
+  ImDrawCallback opaque_callback_ = nullptr;
+  std::vector<FramebufferRect> opaque_;  ///< this frame's opaque_quads
   std::vector<ImDrawList*> filtered_;
   std::vector<unsigned char> probe_;
   unsigned program_ = 0, vao_ = 0, vbo_ = 0;

@@ -26,6 +26,7 @@
 #include "attiscope/core/columns.hpp"
 #include "gui/card_values.hpp"
 #include "gui/gui.hpp"
+#include "gui/plot_picture.hpp"
 #include "gui/redraw.hpp"
 #include "gui/script.hpp"
 #include "gui/ui.hpp"
@@ -617,6 +618,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   });
   PartialPainter painter;
   painter.set_allowed(!opt.full_redraw);
+  painter.set_opaque_callback(PlotPicture::opaque_callback());
   float scale = window_scale(window, settings);
   build_fonts(ui, scale);
   ImGui_ImplOpenGL3_CreateDeviceObjects();  // shaders and the font texture, now, to set its filter
@@ -631,7 +633,7 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
   int frames_left = kFramesAfterEvent;
   bool first_frame = true;
   double first_frame_s = 0.0, first_frame_process_s = 0.0;
-  std::vector<double> frame_times, frame_cpu, ui_cpu, imgui_draw_wall, repainted_share;
+  std::vector<double> frame_times, frame_cpu, ui_cpu, imgui_draw_wall, repainted_share, filled_share;
   double previous_cpu = 0.0;
   int last_vertices = 0;
   Clock::time_point last_frame = Clock::now();
@@ -722,8 +724,10 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
     ui.partial_redraw = painter.partial();
     if (opt.bench_frames > 0) glFinish();  // so the draw's own cost can be reported
     const double draw_wall = seconds(draw_start, Clock::now());
-    if (opt.bench_frames > 0 && frame_index > 0)
+    if (opt.bench_frames > 0 && frame_index > 0) {
       repainted_share.push_back(painter.last_dirty_pixels() / (static_cast<double>(fw) * fh));
+      filled_share.push_back(painter.last_filled_pixels() / (static_cast<double>(fw) * fh));
+    }
     if (opt.script_path && !player.done() && player.steps[player.next].op == "redraw-check") {
       // The same frame repainted whole must give the same pixels as the partial frame.
       const std::vector<unsigned char> partial = read_back_buffer(fw, fh);
@@ -835,9 +839,11 @@ int run_window(const std::vector<std::string>& args, std::ostream& out, std::ost
         context_s * 1e3, (fonts_s - context_s) * 1e3, (first_frame_s - fonts_s) * 1e3);
     out << line;
     std::snprintf(
-        line, sizeof line, "  redraw: %s; median share of the window repainted %.0f%%\n",
+        line, sizeof line,
+        "  redraw: %s; median share of the window repainted %.0f%%, filled with the panel colour "
+        "(not under a view or an opaque picture) %.0f%%\n",
         painter.partial() ? "only what changed (the back buffer is kept)" : "the whole window each frame",
-        percentile(repainted_share, 0.5) * 100.0);
+        percentile(repainted_share, 0.5) * 100.0, percentile(filled_share, 0.5) * 100.0);
     out << line;
   }
   shutdown_track(ui);

@@ -5,6 +5,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstdint>
 #include <fstream>
 #include <set>
 #include <tuple>
@@ -121,6 +122,48 @@ TEST(DamageGridTest, ClosingGrowsOverWholeTrianglesAndViewBoxes) {
   const FramebufferRect v = g.dirty_bounds(views[0]);
   EXPECT_EQ(std::tie(v.x, v.y, v.width, v.height), std::make_tuple(100, 40, 80, 50));
   EXPECT_TRUE(g.touches({160, 60, 8, 8}));  // inside the view's box now, so drawn again
+}
+
+void opaque_test_callback(const ImDrawList*, const ImDrawCmd*) {}
+
+TEST(DamageGridTest, OpaqueQuadsAreTheImagesAfterTheOpaqueCallback) {
+  ImGuiContext* context = ImGui::CreateContext();
+  {
+    ImDrawList list(ImGui::GetDrawListSharedData());
+    list._ResetForNewFrame();
+    list.PushClipRect(ImVec2(0, 0), ImVec2(200, 100));
+    const auto texture = reinterpret_cast<ImTextureID>(static_cast<std::uintptr_t>(7));
+    list.AddImage(texture, ImVec2(5, 5), ImVec2(50, 50));  // blended: not opaque
+    list.AddCallback(opaque_test_callback, nullptr);
+    list.AddImage(texture, ImVec2(10.5f, 20), ImVec2(110, 90));  // opaque
+    list.AddCallback(ImDrawCallback_ResetRenderState, nullptr);
+    list.AddCallback(opaque_test_callback, nullptr);
+    list.AddImageQuad(texture, ImVec2(120, 10), ImVec2(190, 20), ImVec2(180, 80), ImVec2(110, 70));  // turned
+    list.PushClipRect(ImVec2(150, 0), ImVec2(200, 60));
+    list.AddImage(texture, ImVec2(140, 40), ImVec2(199, 99));  // cut by its clip rectangle
+    list.PopClipRect();
+    ImDrawList* lists[] = {&list};
+    ImDrawData data;
+    data.Valid = true;
+    data.CmdLists = lists;
+    data.CmdListsCount = 1;
+    data.DisplayPos = ImVec2(0, 0);
+    data.DisplaySize = ImVec2(200, 100);
+    data.FramebufferScale = ImVec2(1, 1);
+    std::vector<FramebufferRect> quads;
+    opaque_quads(data, opaque_test_callback, 100, &quads);
+    ASSERT_EQ(quads.size(), 2u);
+    // x 10.5..110 -> whole pixels 11..110, less one each side: 12..109; y 20..90 top-down ->
+    // 21..89, bottom-up from 100: 11..79.
+    EXPECT_EQ(std::tie(quads[0].x, quads[0].y, quads[0].width, quads[0].height),
+              std::make_tuple(12, 11, 97, 68));
+    // x 150..199 (clip from 150), y 40..60 (clip to 60), less a pixel: 151..198 x 41..59.
+    EXPECT_EQ(std::tie(quads[1].x, quads[1].y, quads[1].width, quads[1].height),
+              std::make_tuple(151, 41, 47, 18));
+    opaque_quads(data, nullptr, 100, &quads);
+    EXPECT_TRUE(quads.empty());
+  }
+  ImGui::DestroyContext(context);
 }
 
 class RedrawWindowTest : public test::WindowFixture {
