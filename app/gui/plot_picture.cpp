@@ -8,11 +8,17 @@
 #include <GL/glext.h>
 #include <imgui_impl_opengl3.h>
 
+#include <algorithm>
+#include <cmath>
 #include <cstdint>
+
+#include "gui/redraw.hpp"
 
 namespace attiscope::gui {
 
 namespace {
+
+static_assert(PlotPicture::kTilePx % kCellPx == 0, "tiles of whole damage cells");
 
 ImTextureID as_texture_id(unsigned texture) {
   return reinterpret_cast<ImTextureID>(static_cast<std::uintptr_t>(texture));
@@ -88,8 +94,40 @@ void PlotPicture::show(ImDrawList* dl, ImVec2 min, ImVec2 max) const {
   // The generation rides on the callback, so a window that repaints only what changed sees
   // a new picture under the same texture as a change (redraw.hpp keys the callbacks).
   dl->AddCallback(disable_blending, reinterpret_cast<void*>(static_cast<std::uintptr_t>(generation_)));
-  // GL's rows run bottom-up: the picture's top is the texture's last row.
-  dl->AddImage(as_texture_id(texture_), min, max, ImVec2(0.0f, 1.0f), ImVec2(1.0f, 0.0f));
+  // In tiles on a fixed grid of the framebuffer, so a partial frame that must repaint a line
+  // drawn over the picture (the cursor) repaints only the tiles under it: a triangle touching
+  // a dirty cell is drawn whole (redraw.hpp), and the grid's lines fall on cell edges, so a
+  // tile does not drag its neighbours in. GL's rows run bottom-up: the picture's top is the
+  // texture's last row.
+  const ImGuiViewport& viewport = *ImGui::GetMainViewport();
+  const ImVec2 scale = ImGui::GetIO().DisplayFramebufferScale;
+  const int framebuffer_height = static_cast<int>(std::lround(viewport.Size.y * scale.y));
+  const int px0 = static_cast<int>(std::lround((min.x - viewport.Pos.x) * scale.x));
+  const int py0 = static_cast<int>(std::lround((min.y - viewport.Pos.y) * scale.y));
+  const int px1 = px0 + width_, py1 = py0 + height_;
+  if (width_ <= 0 || height_ <= 0 || max.x <= min.x || max.y <= min.y) return;
+  const auto point = [&](int x, int y) {
+    return ImVec2(viewport.Pos.x + static_cast<float>(x) / scale.x,
+                  viewport.Pos.y + static_cast<float>(y) / scale.y);
+  };
+  const auto next_edge = [](int from, int step) { return (from / step + 1) * step; };
+  for (int ty0 = py0; ty0 < py1;) {
+    // Rows of tiles end where the distance from the framebuffer's bottom is a whole tile.
+    const int from_bottom = framebuffer_height - ty0;
+    int ty1 = framebuffer_height -
+              (from_bottom % kTilePx == 0 ? from_bottom - kTilePx : from_bottom / kTilePx * kTilePx);
+    ty1 = std::min(std::max(ty1, ty0 + 1), py1);
+    for (int tx0 = px0; tx0 < px1;) {
+      const int tx1 = std::min(next_edge(tx0, kTilePx), px1);
+      const ImVec2 uv0(static_cast<float>(tx0 - px0) / static_cast<float>(width_),
+                       1.0f - static_cast<float>(ty0 - py0) / static_cast<float>(height_));
+      const ImVec2 uv1(static_cast<float>(tx1 - px0) / static_cast<float>(width_),
+                       1.0f - static_cast<float>(ty1 - py0) / static_cast<float>(height_));
+      dl->AddImage(as_texture_id(texture_), point(tx0, ty0), point(tx1, ty1), uv0, uv1);
+      tx0 = tx1;
+    }
+    ty0 = ty1;
+  }
   dl->AddCallback(ImDrawCallback_ResetRenderState, nullptr);
 }
 

@@ -24,14 +24,16 @@ class PlotPicture {
   /// Paints `content` (covering min..max in screen coordinates) into the picture at `scale`
   /// pixels per point. False when GL cannot make the picture (then draw straight instead).
   bool paint(ImDrawList* content, ImVec2 min, ImVec2 max, ImVec2 scale);
-  /// Adds the picture to `dl` at min..max as an opaque quad (no blending: the picture
-  /// already holds its background).
+  /// Adds the picture to `dl` at min..max (whole pixels) as opaque quads (no blending: the
+  /// picture already holds its background), one per tile of kTilePx on the framebuffer.
   void show(ImDrawList* dl, ImVec2 min, ImVec2 max) const;
   /// Frees the texture and framebuffer.
   void release();
   /// The draw callback show() puts before its quad: what follows it until the next callback
   /// is drawn without blending, so covers what lies under it (redraw.hpp skips filling there).
   static ImDrawCallback opaque_callback();
+  /// Side of the tiles show() draws, framebuffer pixels: whole damage cells (redraw.hpp).
+  static constexpr int kTilePx = 32;
 
  private:
   bool ensure_size(int width, int height);

@@ -253,8 +253,8 @@ void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<Dr
   }
 }
 
-void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_height,
-                  std::vector<FramebufferRect>* out) {
+void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_width,
+                  int framebuffer_height, std::vector<FramebufferRect>* out) {
   out->clear();
   if (opaque == nullptr) return;
   const ImVec2 off = data.DisplayPos, scale = data.FramebufferScale;
@@ -266,38 +266,52 @@ void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer
         in_opaque = cmd.UserCallback == opaque;
         continue;
       }
-      if (!in_opaque || cmd.ElemCount != 6) continue;
+      if (!in_opaque) continue;
+      // The scissor box ImGui_ImplOpenGL3 (1.86) sets for this command, as it rounds it,
+      // turned to a top-left origin and cut to the framebuffer.
+      const float cx0 = (cmd.ClipRect.x - off.x) * scale.x, cy0 = (cmd.ClipRect.y - off.y) * scale.y;
+      const float cx1 = (cmd.ClipRect.z - off.x) * scale.x, cy1 = (cmd.ClipRect.w - off.y) * scale.y;
+      if (cx1 <= cx0 || cy1 <= cy0) continue;
+      const int scissor_x = static_cast<int>(cx0);
+      const int scissor_y =
+          static_cast<int>(static_cast<float>(framebuffer_height) - cy1);  // from the bottom
+      const int sx0 = std::max(0, scissor_x);
+      const int sx1 = std::min(framebuffer_width, scissor_x + static_cast<int>(cx1 - cx0));
+      const int sy0 = std::max(0, framebuffer_height - (scissor_y + static_cast<int>(cy1 - cy0)));
+      const int sy1 = std::min(framebuffer_height, framebuffer_height - scissor_y);
       const ImDrawIdx* idx = list.IdxBuffer.Data + cmd.IdxOffset;
       const ImDrawVert* vtx = list.VtxBuffer.Data + cmd.VtxOffset;
-      float x0 = vtx[idx[0]].pos.x, x1 = x0, y0 = vtx[idx[0]].pos.y, y1 = y0;
-      for (int k = 1; k < 6; ++k) {
-        x0 = std::min(x0, vtx[idx[k]].pos.x);
-        x1 = std::max(x1, vtx[idx[k]].pos.x);
-        y0 = std::min(y0, vtx[idx[k]].pos.y);
-        y1 = std::max(y1, vtx[idx[k]].pos.y);
+      for (unsigned q = 0; q + 6 <= cmd.ElemCount; q += 6) {  // the quads, two triangles each
+        const ImDrawIdx* quad = idx + q;
+        float x0 = vtx[quad[0]].pos.x, x1 = x0, y0 = vtx[quad[0]].pos.y, y1 = y0;
+        for (int k = 1; k < 6; ++k) {
+          x0 = std::min(x0, vtx[quad[k]].pos.x);
+          x1 = std::max(x1, vtx[quad[k]].pos.x);
+          y0 = std::min(y0, vtx[quad[k]].pos.y);
+          y1 = std::max(y1, vtx[quad[k]].pos.y);
+        }
+        // Axis-aligned: every corner at the box's edges, and the two triangles' areas adding
+        // up to the box's.
+        bool corners = true;
+        for (int k = 0; k < 6; ++k) {
+          const ImVec2 p = vtx[quad[k]].pos;
+          corners = corners && (p.x == x0 || p.x == x1) && (p.y == y0 || p.y == y1);
+        }
+        double area = 0.0;
+        for (int k = 0; k < 6; k += 3) {
+          const ImVec2 a = vtx[quad[k]].pos, b = vtx[quad[k + 1]].pos, c = vtx[quad[k + 2]].pos;
+          area += std::abs(static_cast<double>((b.x - a.x) * (c.y - a.y) - (c.x - a.x) * (b.y - a.y))) * 0.5;
+        }
+        const double box_area = static_cast<double>(x1 - x0) * static_cast<double>(y1 - y0);
+        if (!corners || std::abs(area - box_area) > 1e-3 * std::max(1.0, box_area)) continue;
+        // The pixels whose centres lie inside the quad (rounded inwards), within the scissor.
+        const int px0 = std::max(sx0, static_cast<int>(std::ceil((x0 - off.x) * scale.x)));
+        const int py0 = std::max(sy0, static_cast<int>(std::ceil((y0 - off.y) * scale.y)));
+        const int px1 = std::min(sx1, static_cast<int>(std::floor((x1 - off.x) * scale.x)));
+        const int py1 = std::min(sy1, static_cast<int>(std::floor((y1 - off.y) * scale.y)));
+        if (px1 <= px0 || py1 <= py0) continue;
+        out->push_back({px0, framebuffer_height - py1, px1 - px0, py1 - py0});
       }
-      // Axis-aligned: every corner at the box's edges, and the two triangles' areas adding
-      // up to the box's.
-      bool corners = true;
-      double area = 0.0;
-      for (int k = 0; k < 6; ++k) {
-        const ImVec2 p = vtx[idx[k]].pos;
-        corners = corners && (p.x == x0 || p.x == x1) && (p.y == y0 || p.y == y1);
-      }
-      for (int k = 0; k < 6; k += 3) {
-        const ImVec2 a = vtx[idx[k]].pos, b = vtx[idx[k + 1]].pos, c = vtx[idx[k + 2]].pos;
-        area += std::abs(static_cast<double>((b.x - a.x) * (c.y - a.y) - (c.x - a.x) * (b.y - a.y))) * 0.5;
-      }
-      const double box_area = static_cast<double>(x1 - x0) * static_cast<double>(y1 - y0);
-      if (!corners || std::abs(area - box_area) > 1e-3 * std::max(1.0, box_area)) continue;
-      // Pixels, top-left origin: inside both the quad and its clip rectangle, less a pixel.
-      const float px0 = std::ceil((std::max(x0, cmd.ClipRect.x) - off.x) * scale.x) + 1.0f;
-      const float py0 = std::ceil((std::max(y0, cmd.ClipRect.y) - off.y) * scale.y) + 1.0f;
-      const float px1 = std::floor((std::min(x1, cmd.ClipRect.z) - off.x) * scale.x) - 1.0f;
-      const float py1 = std::floor((std::min(y1, cmd.ClipRect.w) - off.y) * scale.y) - 1.0f;
-      if (px1 <= px0 || py1 <= py0) continue;
-      out->push_back({static_cast<int>(px0), framebuffer_height - static_cast<int>(py1),
-                      static_cast<int>(px1 - px0), static_cast<int>(py1 - py0)});
     }
   }
 }
@@ -409,7 +423,7 @@ void PartialPainter::plan(const ImDrawData& data, int framebuffer_width, int fra
   grid_.begin(framebuffer_width, framebuffer_height);
   drawn_triangles(data, framebuffer_height, &now_);
   sort_for_comparison(now_, &sorted_now_);
-  opaque_quads(data, opaque_callback_, framebuffer_height, &opaque_);
+  opaque_quads(data, opaque_callback_, framebuffer_width, framebuffer_height, &opaque_);
   full_ = !partial() || invalidated_ || full_frames_left_ > 0 || grid_.all();
   invalidated_ = false;
   full_frames_left_ = std::max(0, full_frames_left_ - 1);

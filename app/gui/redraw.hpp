@@ -93,12 +93,12 @@ void sort_for_comparison(const std::vector<DrawnTriangle>& triangles, std::vecto
 void mark_changes(const std::vector<DrawnTriangle>& before, const std::vector<DrawnTriangle>& now,
                   DamageGrid& grid);
 
-/// The pixels wholly covered by opaque quads: axis-aligned rectangles (two triangles, as
+/// The pixels wholly covered by opaque quads: axis-aligned rectangles (two triangles each, as
 /// ImDrawList::AddImage makes) drawn after the callback `opaque` and before the next one,
-/// which draws without blending. Each is cut to its clip rectangle and shrunk by a pixel, so
-/// every pixel in it is painted by the quad whatever the rasteriser's rounding.
-void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_height,
-                  std::vector<FramebufferRect>* out);
+/// which draws without blending. Each is the pixels whose centres the quad holds (rounded
+/// inwards), cut to the scissor box ImGui's OpenGL3 backend sets for its clip rectangle.
+void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer_width,
+                  int framebuffer_height, std::vector<FramebufferRect>* out);
 
 /// Grows the dirty cells until each triangle that touches them lies inside them, and the
 /// dirty part of each region (a view, which repaints the box of its dirty cells) is a box.

@@ -135,11 +135,12 @@ TEST(DamageGridTest, OpaqueQuadsAreTheImagesAfterTheOpaqueCallback) {
     const auto texture = reinterpret_cast<ImTextureID>(static_cast<std::uintptr_t>(7));
     list.AddImage(texture, ImVec2(5, 5), ImVec2(50, 50));  // blended: not opaque
     list.AddCallback(opaque_test_callback, nullptr);
-    list.AddImage(texture, ImVec2(10.5f, 20), ImVec2(110, 90));  // opaque
+    list.AddImage(texture, ImVec2(10.5f, 20), ImVec2(60, 90));  // opaque, two tiles in one command
+    list.AddImage(texture, ImVec2(60, 20), ImVec2(110.5f, 90));
     list.AddCallback(ImDrawCallback_ResetRenderState, nullptr);
     list.AddCallback(opaque_test_callback, nullptr);
     list.AddImageQuad(texture, ImVec2(120, 10), ImVec2(190, 20), ImVec2(180, 80), ImVec2(110, 70));  // turned
-    list.PushClipRect(ImVec2(150, 0), ImVec2(200, 60));
+    list.PushClipRect(ImVec2(150.5f, 0), ImVec2(200, 60.5f));
     list.AddImage(texture, ImVec2(140, 40), ImVec2(199, 99));  // cut by its clip rectangle
     list.PopClipRect();
     ImDrawList* lists[] = {&list};
@@ -151,16 +152,19 @@ TEST(DamageGridTest, OpaqueQuadsAreTheImagesAfterTheOpaqueCallback) {
     data.DisplaySize = ImVec2(200, 100);
     data.FramebufferScale = ImVec2(1, 1);
     std::vector<FramebufferRect> quads;
-    opaque_quads(data, opaque_test_callback, 100, &quads);
-    ASSERT_EQ(quads.size(), 2u);
-    // x 10.5..110 -> whole pixels 11..110, less one each side: 12..109; y 20..90 top-down ->
-    // 21..89, bottom-up from 100: 11..79.
+    opaque_quads(data, opaque_test_callback, 200, 100, &quads);
+    ASSERT_EQ(quads.size(), 3u);
+    // Rows are counted from the bottom (100 - 90 = 10). x 10.5..60: the centres 11.5..59.5.
     EXPECT_EQ(std::tie(quads[0].x, quads[0].y, quads[0].width, quads[0].height),
-              std::make_tuple(12, 11, 97, 68));
-    // x 150..199 (clip from 150), y 40..60 (clip to 60), less a pixel: 151..198 x 41..59.
+              std::make_tuple(11, 10, 49, 70));
     EXPECT_EQ(std::tie(quads[1].x, quads[1].y, quads[1].width, quads[1].height),
-              std::make_tuple(151, 41, 47, 18));
-    opaque_quads(data, nullptr, 100, &quads);
+              std::make_tuple(60, 10, 50, 70));
+    // The scissor ImGui sets for x 150.5..200, y 0..60.5: x from 150, 49 wide; y 39 (100 -
+    // 60.5, rounded down) from the bottom, 60 high: top-down rows 1..61, cut by the quad to
+    // 40..61 (its top at 40), framebuffer rows from the bottom 39..60.
+    EXPECT_EQ(std::tie(quads[2].x, quads[2].y, quads[2].width, quads[2].height),
+              std::make_tuple(150, 39, 49, 21));
+    opaque_quads(data, nullptr, 200, 100, &quads);
     EXPECT_TRUE(quads.empty());
   }
   ImGui::DestroyContext(context);
