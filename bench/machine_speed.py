@@ -13,7 +13,7 @@ def main():
     sum(i * i for i in range(10**7))
     took = time.perf_counter() - t
     print(f"machine speed: a fixed Python loop (sum of squares to 1e7) takes {took:.2f} s now "
-          "(0.93-0.98 s in a normal minute of 2026-12-02; more is a slower minute)")
+          "(0.54-1.44 s on this machine on 2026-12-02, most often 0.8-1.0 s; more is slower)")
 
 
 if __name__ == "__main__":
