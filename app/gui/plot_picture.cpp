@@ -91,6 +91,7 @@ bool PlotPicture::paint(ImDrawList* content, ImVec2 min, ImVec2 max, ImVec2 scal
 }
 
 void PlotPicture::show(ImDrawList* dl, ImVec2 min, ImVec2 max) const {
+  if (width_ <= 0 || height_ <= 0 || max.x <= min.x || max.y <= min.y) return;
   // The generation rides on the callback, so a window that repaints only what changed sees
   // a new picture under the same texture as a change (redraw.hpp keys the callbacks).
   dl->AddCallback(disable_blending, reinterpret_cast<void*>(static_cast<std::uintptr_t>(generation_)));
@@ -105,20 +106,18 @@ void PlotPicture::show(ImDrawList* dl, ImVec2 min, ImVec2 max) const {
   const int px0 = static_cast<int>(std::lround((min.x - viewport.Pos.x) * scale.x));
   const int py0 = static_cast<int>(std::lround((min.y - viewport.Pos.y) * scale.y));
   const int px1 = px0 + width_, py1 = py0 + height_;
-  if (width_ <= 0 || height_ <= 0 || max.x <= min.x || max.y <= min.y) return;
   const auto point = [&](int x, int y) {
     return ImVec2(viewport.Pos.x + static_cast<float>(x) / scale.x,
                   viewport.Pos.y + static_cast<float>(y) / scale.y);
   };
-  const auto next_edge = [](int from, int step) { return (from / step + 1) * step; };
+  // Tiles' edges: columns at whole tiles from the framebuffer's left, rows at whole tiles from
+  // its bottom (the damage grid's origin), wherever the picture lies.
+  const auto floor_div = [](int a, int b) { return a / b - (a % b != 0 && (a < 0) != (b < 0) ? 1 : 0); };
   for (int ty0 = py0; ty0 < py1;) {
-    // Rows of tiles end where the distance from the framebuffer's bottom is a whole tile.
-    const int from_bottom = framebuffer_height - ty0;
-    int ty1 = framebuffer_height -
-              (from_bottom % kTilePx == 0 ? from_bottom - kTilePx : from_bottom / kTilePx * kTilePx);
-    ty1 = std::min(std::max(ty1, ty0 + 1), py1);
+    const int ty1 =
+        std::min(py1, framebuffer_height - floor_div(framebuffer_height - ty0 - 1, kTilePx) * kTilePx);
     for (int tx0 = px0; tx0 < px1;) {
-      const int tx1 = std::min(next_edge(tx0, kTilePx), px1);
+      const int tx1 = std::min(px1, (floor_div(tx0, kTilePx) + 1) * kTilePx);
       const ImVec2 uv0(static_cast<float>(tx0 - px0) / static_cast<float>(width_),
                        1.0f - static_cast<float>(ty0 - py0) / static_cast<float>(height_));
       const ImVec2 uv1(static_cast<float>(tx1 - px0) / static_cast<float>(width_),
