@@ -9,8 +9,11 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <cstring>
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace attiscope::gui {
 
@@ -319,13 +322,52 @@ void opaque_quads(const ImDrawData& data, ImDrawCallback opaque, int framebuffer
 void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
                   const std::vector<FramebufferRect>& regions) {
   // Each pass adds what touches the damage; it ends when a pass adds nothing (at most every
-  // cell, so it ends).
-  for (bool grew = true; grew && !grid.all();) {
-    grew = false;
+  // cell, so it ends). A pass looks only at the triangles in the bands of rows that hold
+  // dirty cells (the first pass) or where the pass before marked some (a later one): no
+  // other triangle can touch a new dirty cell.
+  constexpr int kBandPx = 8 * kCellPx;
+  const int bands = std::max(1, (grid.height() + kBandPx - 1) / kBandPx);
+  const auto band_range = [&](const FramebufferRect& r) {
+    const int first = std::clamp(r.y / kBandPx, 0, bands - 1);
+    const int last = std::clamp((r.y + r.height - 1) / kBandPx, 0, bands - 1);
+    return std::make_pair(first, last);
+  };
+  std::vector<std::vector<std::uint32_t>> in_band(static_cast<std::size_t>(bands));
+  for (std::size_t i = 0; i < triangles.size(); ++i) {
+    if (triangles[i].box.empty()) continue;
+    const auto [first, last] = band_range(triangles[i].box);
+    for (int b = first; b <= last; ++b)
+      in_band[static_cast<std::size_t>(b)].push_back(static_cast<std::uint32_t>(i));
+  }
+  std::vector<char> marked(triangles.size(), 0);  // wholly inside the damage already
+  std::vector<int> seen(triangles.size(), -1);    // the last pass that looked at it
+  // The first pass: the bands that hold a dirty cell.
+  std::vector<char> grew_in(static_cast<std::size_t>(bands), 0), grows_in(static_cast<std::size_t>(bands), 0);
+  for (int b = 0; b < bands; ++b)
+    grew_in[static_cast<std::size_t>(b)] = grid.touches({0, b * kBandPx, grid.width(), kBandPx}) ? 1 : 0;
+  const auto mark = [&](const FramebufferRect& r) {
+    if (!grid.mark(r)) return false;
+    const auto [first, last] = band_range(r);
+    for (int b = first; b <= last; ++b) grows_in[static_cast<std::size_t>(b)] = 1;
+    return true;
+  };
+  for (int pass = 0; !grid.all(); ++pass) {
+    bool grew = false;
     for (const FramebufferRect& r : regions)
-      if (grid.touches(r)) grew = grid.mark(grid.dirty_bounds(r)) || grew;
-    for (const DrawnTriangle& t : triangles)
-      if (!t.box.empty() && grid.touches(t.box)) grew = grid.mark(t.box) || grew;
+      if (grid.touches(r)) grew = mark(grid.dirty_bounds(r)) || grew;
+    for (int b = 0; b < bands; ++b) {
+      if (!grew_in[static_cast<std::size_t>(b)]) continue;
+      for (const std::uint32_t i : in_band[static_cast<std::size_t>(b)]) {
+        if (marked[i] || seen[i] == pass) continue;
+        seen[i] = pass;
+        if (!grid.touches(triangles[i].box)) continue;
+        marked[i] = 1;
+        grew = mark(triangles[i].box) || grew;
+      }
+    }
+    if (!grew) break;
+    grew_in.swap(grows_in);
+    std::fill(grows_in.begin(), grows_in.end(), 0);
   }
 }
 

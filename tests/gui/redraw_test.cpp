@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdint>
 #include <fstream>
+#include <random>
 #include <set>
 #include <tuple>
 #include <utility>
@@ -122,6 +123,52 @@ TEST(DamageGridTest, ClosingGrowsOverWholeTrianglesAndViewBoxes) {
   const FramebufferRect v = g.dirty_bounds(views[0]);
   EXPECT_EQ(std::tie(v.x, v.y, v.width, v.height), std::make_tuple(100, 40, 80, 50));
   EXPECT_TRUE(g.touches({160, 60, 8, 8}));  // inside the view's box now, so drawn again
+}
+
+/// The closing as first written: every triangle and region looked at in every pass.
+void close_damage_by_full_passes(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
+                                 const std::vector<FramebufferRect>& regions) {
+  for (bool grew = true; grew && !grid.all();) {
+    grew = false;
+    for (const FramebufferRect& r : regions)
+      if (grid.touches(r)) grew = grid.mark(grid.dirty_bounds(r)) || grew;
+    for (const DrawnTriangle& t : triangles)
+      if (!t.box.empty() && grid.touches(t.box)) grew = grid.mark(t.box) || grew;
+  }
+}
+
+TEST(DamageGridTest, ClosingLooksOnlyWhereItGrewAndEndsTheSame) {
+  // Random glyph-sized and long boxes, in chains across bands of rows, a few views: the
+  // closing that revisits only the bands where cells were marked ends with the same cells.
+  std::mt19937 random(20261202);
+  for (int round = 0; round < 200; ++round) {
+    const int w = 320, h = 240;
+    std::uniform_int_distribution<int> x(0, w - 1), y(0, h - 1), small(1, 12), large(1, 160);
+    std::vector<DrawnTriangle> tris;
+    const int count = 20 + round % 80;
+    for (int k = 0; k < count; ++k) {
+      const bool long_one = k % 9 == 0;
+      tris.push_back(
+          tri(static_cast<std::uint64_t>(k), {x(random), y(random), long_one ? large(random) : small(random),
+                                              long_one && k % 2 ? large(random) : small(random)}));
+    }
+    tris.push_back(tri(999, {5, 5, 0, 7}));  // empty: never marks
+    std::vector<FramebufferRect> views;
+    if (round % 3 == 0) views.push_back({x(random) / 2, y(random) / 2, 60, 40});
+    DamageGrid banded, full;
+    banded.begin(w, h);
+    banded.begin(w, h);
+    full.begin(w, h);
+    full.begin(w, h);
+    for (int k = 0; k < 1 + round % 4; ++k) {
+      const FramebufferRect seed{x(random), y(random), small(random), small(random)};
+      banded.mark(seed);
+      full.mark(seed);
+    }
+    close_damage(banded, tris, views);
+    close_damage_by_full_passes(full, tris, views);
+    ASSERT_EQ(dirty_cells(banded), dirty_cells(full)) << "round " << round;
+  }
 }
 
 void opaque_test_callback(const ImDrawList*, const ImDrawCmd*) {}
