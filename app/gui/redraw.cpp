@@ -11,6 +11,7 @@
 #include <cmath>
 #include <cstdint>
 #include <cstring>
+#include <limits>
 #include <string>
 #include <utility>
 #include <vector>
@@ -339,8 +340,9 @@ void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
     for (int b = first; b <= last; ++b)
       in_band[static_cast<std::size_t>(b)].push_back(static_cast<std::uint32_t>(i));
   }
-  std::vector<char> marked(triangles.size(), 0);  // wholly inside the damage already
-  std::vector<int> seen(triangles.size(), -1);    // the last pass that looked at it
+  // The last pass that looked at each triangle; kInside once it lies wholly in the damage.
+  constexpr int kInside = std::numeric_limits<int>::max();
+  std::vector<int> seen(triangles.size(), -1);
   // The first pass: the bands that hold a dirty cell.
   std::vector<char> grew_in(static_cast<std::size_t>(bands), 0), grows_in(static_cast<std::size_t>(bands), 0);
   for (int b = 0; b < bands; ++b)
@@ -358,10 +360,10 @@ void close_damage(DamageGrid& grid, const std::vector<DrawnTriangle>& triangles,
     for (int b = 0; b < bands; ++b) {
       if (!grew_in[static_cast<std::size_t>(b)]) continue;
       for (const std::uint32_t i : in_band[static_cast<std::size_t>(b)]) {
-        if (marked[i] || seen[i] == pass) continue;
+        if (seen[i] >= pass) continue;
         seen[i] = pass;
         if (!grid.touches(triangles[i].box)) continue;
-        marked[i] = 1;
+        seen[i] = kInside;
         grew = mark(triangles[i].box) || grew;
       }
     }
