@@ -1,17 +1,19 @@
 // render_bench.cpp: figures for the renderer (a benchmark that prints, not a timed test).
 //
-//   render_bench [--frames N] [--only TEXT]
+//   render_bench [--frames N] [--only TEXT] [--pictures DIR]
 //
 // Prints the median and 90th percentile time of the 3D pass alone (scene, body, rings,
 // labels and the antialiasing pass) into a 900x700 region, finished with glFinish, for
 // several variants while the body turns a little every frame, the same view when nothing
 // changed (the kept scene is shown again), and the readback + PNG encode of a 1024x768
-// picture. --only keeps the rows whose name holds TEXT (for a profiler). The whole-process
+// picture. --only keeps the rows whose name holds TEXT (for a profiler); --pictures writes each
+// variant's last frame into DIR as a PNG, to look at what the antialiasing does. The whole-process
 // time of `attiscope render` is measured by bench/render_process.py.
 #define GL_GLEXT_PROTOTYPES 1
 #include <GL/glcorearb.h>
 
 #include <algorithm>
+#include <cctype>
 #include <chrono>
 #include <cstdio>
 #include <cstring>
@@ -65,10 +67,11 @@ Figures time_it(int frames, F&& f) {
 
 int main(int argc, char** argv) {
   int frames = 40;
-  std::string only;
+  std::string only, pictures;
   for (int i = 1; i + 1 < argc; ++i) {
     if (std::strcmp(argv[i], "--frames") == 0) frames = std::max(1, std::atoi(argv[i + 1]));
     if (std::strcmp(argv[i], "--only") == 0) only = argv[i + 1];
+    if (std::strcmp(argv[i], "--pictures") == 0) pictures = argv[i + 1];
   }
   auto ctx = HeadlessContext::create();
   if (!ctx) {
@@ -83,14 +86,16 @@ int main(int argc, char** argv) {
     Antialiasing aa;
   };
   const Variant variants[] = {
-      {"box, post AA", ModelKind::Box, false, false, Antialiasing::Post},
+      {"box, edge AA", ModelKind::Box, false, false, Antialiasing::Edges},
       {"box, no AA", ModelKind::Box, false, false, Antialiasing::None},
-      // The scene the 3D pass target is set for: a body and the three gimbal rings.
+      // The scene the 3D pass target is set for: a body and the three gimbal rings. The
+      // smoothing pass is no longer the default; its row is kept to compare.
+      {"quadcopter + rings, edge AA", ModelKind::Quadcopter, true, false, Antialiasing::Edges},
       {"quadcopter + rings, post AA", ModelKind::Quadcopter, true, false, Antialiasing::Post},
       {"quadcopter + rings, no AA", ModelKind::Quadcopter, true, false, Antialiasing::None},
-      {"quadcopter + rings + ghost, post AA", ModelKind::Quadcopter, true, true, Antialiasing::Post},
+      {"quadcopter + rings + ghost, edge AA", ModelKind::Quadcopter, true, true, Antialiasing::Edges},
       {"quadcopter + rings + ghost, no AA", ModelKind::Quadcopter, true, true, Antialiasing::None},
-      {"aircraft + rings, post AA", ModelKind::Aircraft, true, false, Antialiasing::Post},
+      {"aircraft + rings, edge AA", ModelKind::Aircraft, true, false, Antialiasing::Edges},
   };
   for (const Variant& v : variants) {
     if (!only.empty() && std::string(v.name).find(only) == std::string::npos) continue;
@@ -131,13 +136,21 @@ int main(int argc, char** argv) {
     });
     std::printf("3D pass 900x700, %-36s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (%zu triangles)\n",
                 v.name, f.median_ms, f.p90_ms, f.cpu_median_ms, r.value()->last_triangle_count());
-    if (v.aa == Antialiasing::Post && !v.rings) {
+    if (v.aa == Antialiasing::Edges && !v.rings) {
       const Figures u = time_it(frames, [&] { r.value()->draw(s, region); });
       std::printf("3D view 900x700, %-35s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (reused: %s)\n",
-                  "unchanged scene, post AA", u.median_ms, u.p90_ms, u.cpu_median_ms,
+                  "unchanged scene, edge AA", u.median_ms, u.p90_ms, u.cpu_median_ms,
                   r.value()->last_draw_reused() ? "yes" : "no");
     }
     glBindFramebuffer(GL_FRAMEBUFFER, 0);
+    if (!pictures.empty()) {
+      std::string file = v.name;
+      for (char& ch : file)
+        if (!std::isalnum(static_cast<unsigned char>(ch))) ch = '_';
+      const std::string path = (std::filesystem::path(pictures) / (file + ".png")).string();
+      if (auto written = write_png(path, r.value()->render_image(s)); !written)
+        std::fprintf(stderr, "render_bench: %s\n", written.error().describe().c_str());
+    }
     glDeleteFramebuffers(1, &fbo);
     glDeleteRenderbuffers(2, rb);
   }

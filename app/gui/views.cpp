@@ -42,7 +42,7 @@ void run_export(Ui& ui) {
     return;
   }
   render::SceneState st = scene_state(ui, req.width, req.height);
-  views.renderer->set_antialiasing(render::Antialiasing::Post);
+  views.renderer->set_antialiasing(render::Antialiasing::Edges);
   const render::Image image = views.renderer->render_image(st);
   auto written = render::write_png(req.path, image);
   if (!written) {
@@ -130,7 +130,7 @@ std::vector<FramebufferRect> views_plan(Ui& ui, DamageGrid& damage, bool compare
   const bool moving = v.drag != DragMode::None || ui.spinning || (pose_changed && views.pose_changed_before);
   views.pose_changed_before = pose_changed;
   views.last_pose = pose;
-  renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Post);
+  renderer->set_antialiasing(moving ? render::Antialiasing::None : render::Antialiasing::Edges);
   v.smoothed = !moving;
   auto plan = [&](int slot, const FramebufferRect& rect, const render::SceneState& st) {
     Views::Shown& sh = views.shown[slot];

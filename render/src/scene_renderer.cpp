@@ -16,6 +16,7 @@
 #include "attiscope/render/gimbal.hpp"
 #include "chain_overlay.hpp"
 #include "closed_parts.hpp"
+#include "edge_strips.hpp"
 #include "font.hpp"
 #include "gl.hpp"
 #include "image_text.hpp"
@@ -68,6 +69,7 @@ struct GpuMesh {
   Eigen::AlignedBox3d box;                       ///< bounds in its own coordinates
   std::vector<Eigen::AlignedBox3d> part_bounds;  ///< closed_parts.hpp
   double ring_radius = 0.0, tube_radius = 0.0;
+  detail::MeshEdges edges;  ///< for the edge strips (edge_strips.hpp)
 };
 
 /// A w x h colour texture stored as BGRA: given BGRA data Mesa stores it so, the layout of an
@@ -112,6 +114,7 @@ GpuMesh upload(const Mesh& mesh) {
   g.count = static_cast<GLsizei>(order.indices.size());
   g.closed_count = static_cast<GLsizei>(order.closed_count);
   g.part_bounds = order.part_bounds;
+  g.edges = detail::find_mesh_edges(mesh, order.indices, order.closed_count);
   for (const Vertex& v : mesh.vertices)
     g.box.extend(Eigen::Vector3d(v.position[0], v.position[1], v.position[2]));
   g.triangles = mesh.triangle_count();
@@ -192,6 +195,11 @@ struct Target {
 /// Uniform locations of the mesh program.
 struct MeshUniforms {
   GLint model, normal_matrix, view_proj, eye, up, key, fill, tint, alpha, glow, half, spec;
+};
+
+/// Uniform locations of the edge strip program.
+struct EdgeUniforms {
+  GLint eye, up, key, fill, half, specular;
 };
 
 struct TextVertex {
@@ -395,8 +403,15 @@ struct SceneRenderer::State {
   std::size_t triangles = 0;
   bool reused = false;  ///< the last draw showed the kept picture of an unchanged scene
 
-  gl::Program mesh_program, grid_program, smooth_program, text_program;
+  gl::Program mesh_program, grid_program, smooth_program, text_program, edge_program;
   MeshUniforms mu{};
+  EdgeUniforms eu{};
+  /// The edge strips of the meshes drawn since the last draw_edges (edge_strips.hpp).
+  gl::VertexArray edge_vao;
+  gl::Buffer edge_vbo;
+  std::vector<detail::EdgeVertex> edge_vertices;
+  /// Whether draw_mesh collects edge strips, and only outlines (a translucent mesh).
+  bool collect_edges = false, outline_edges = false;
   /// The smoothing pass's tile rectangles, as triangles in pixels.
   gl::VertexArray tile_vao;
   gl::Buffer tile_vbo;
@@ -460,9 +475,11 @@ struct SceneRenderer::State {
   /// blend as the text shader), so a one-off picture compiles no text shader variant.
   bool labels_on_cpu = false;
 
-  // Per-frame camera values.
+  // Per-frame camera values, and the lights (world directions; half: the key light's half
+  // vector with the view axis).
   Eigen::Matrix4f view_proj;
   Eigen::Vector3d eye;
+  Eigen::Vector3f light_up, light_key, light_fill, light_half;
   int view_w = 1, view_h = 1;
 
   const GpuMesh& model_gpu(const ModelChoice& choice) {
@@ -525,6 +542,37 @@ struct SceneRenderer::State {
     gl::check("font atlas");
   }
 
+  /// Compiles the edge strip program and makes its vertex array (once).
+  Expected<bool> ensure_edge_program() {
+    if (edge_program) return true;
+    auto p = gl::make_program("edge", detail::with_shading(detail::kEdgeVertex),
+                              detail::with_shading(detail::kEdgeFragment));
+    if (!p) return p.error();
+    edge_program = std::move(p.value());
+    const GLuint ep = edge_program.get();
+    eu = {glGetUniformLocation(ep, "u_eye"),  glGetUniformLocation(ep, "u_up"),
+          glGetUniformLocation(ep, "u_key"),  glGetUniformLocation(ep, "u_fill"),
+          glGetUniformLocation(ep, "u_half"), glGetUniformLocation(ep, "u_specular")};
+    edge_vao = gl::make_vertex_array();
+    edge_vbo = gl::make_buffer();
+    glBindVertexArray(edge_vao.get());
+    glBindBuffer(GL_ARRAY_BUFFER, edge_vbo.get());
+    const GLsizei stride = sizeof(detail::EdgeVertex);
+    auto attribute = [&](GLuint at, GLint size, std::size_t offset) {
+      glEnableVertexAttribArray(at);
+      glVertexAttribPointer(at, size, GL_FLOAT, GL_FALSE, stride, reinterpret_cast<const void*>(offset));
+    };
+    attribute(0, 3, offsetof(detail::EdgeVertex, ndc));
+    attribute(1, 3, offsetof(detail::EdgeVertex, world));
+    attribute(2, 3, offsetof(detail::EdgeVertex, normal));
+    attribute(3, 4, offsetof(detail::EdgeVertex, color));
+    attribute(4, 4, offsetof(detail::EdgeVertex, glow));
+    attribute(5, 3, offsetof(detail::EdgeVertex, edge));
+    glBindVertexArray(0);
+    gl::check("edge program");
+    return true;
+  }
+
   void draw_mesh(const GpuMesh& m, const Eigen::Matrix3d& linear, const Eigen::Vector3d& offset,
                  const Eigen::Vector4f& tint, float alpha, const Eigen::Vector4f& glow) {
     Eigen::Matrix4f model = Eigen::Matrix4f::Identity();
@@ -539,6 +587,20 @@ struct SceneRenderer::State {
     glUniform1f(mu.spec, kSpecular * (1.0f - 0.5f * glow.w()));  // a glow mutes the highlight
     if (footprints)
       footprints->push_back({m.shape, m.box, &m.part_bounds, m.ring_radius, m.tube_radius, linear, offset});
+    if (collect_edges) {
+      detail::EdgePlacement place;
+      place.view_proj = view_proj;
+      place.linear = linear;
+      place.offset = offset;
+      place.eye = eye;
+      place.width = view_w;
+      place.height = view_h;
+      place.tint = tint;
+      place.alpha = alpha;
+      place.glow = glow;
+      place.outline_only = outline_edges;
+      detail::append_edge_strips(m.edges, place, &edge_vertices);
+    }
     glBindVertexArray(m.vao.get());
     if (m.closed_count > 0) {
       glEnable(GL_CULL_FACE);
@@ -607,6 +669,9 @@ struct SceneRenderer::State {
 
   /// Draws the scene into `t` (its framebuffer bound, viewport set).
   void render_scene(const SceneState& st, Target& t);
+  /// Draws the edge strips collected since the last call (blended, depth-tested, no depth
+  /// writes) and forgets them.
+  void draw_edges();
   /// Makes t.smooth: the scene of `t` with its edges smoothed.
   void smooth_scene(Target& t);
   void collect_labels(const SceneState& st, int w, int h);
@@ -622,7 +687,8 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
   s.options = options;
   s.font_job =
       std::async(std::launch::async, [&s] { return detail::bake_label_font(kFontBakePx, &s.font_problem); });
-  auto mesh_p = gl::make_program("mesh", detail::kMeshVertex, detail::kMeshFragment);
+  auto mesh_p = gl::make_program("mesh", detail::with_shading(detail::kMeshVertex),
+                                 detail::with_shading(detail::kMeshFragment));
   if (!mesh_p) return mesh_p.error();
   auto grid_p = gl::make_program("grid", detail::kGridVertex, detail::kGridFragment);
   if (!grid_p) return grid_p.error();
@@ -638,6 +704,9 @@ Expected<std::unique_ptr<SceneRenderer>> SceneRenderer::create(const RendererOpt
           glGetUniformLocation(mp, "u_fill"),      glGetUniformLocation(mp, "u_tint"),
           glGetUniformLocation(mp, "u_alpha"),     glGetUniformLocation(mp, "u_glow"),
           glGetUniformLocation(mp, "u_half"),      glGetUniformLocation(mp, "u_spec")};
+  if (options.antialiasing == Antialiasing::Edges) {
+    if (auto edge = s.ensure_edge_program(); !edge.ok()) return edge.error();
+  }
   s.tile_vao = gl::make_vertex_array();
   s.tile_vbo = gl::make_buffer();
   glBindVertexArray(s.tile_vao.get());
@@ -786,16 +855,18 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
   glUniformMatrix4fv(mu.view_proj, 1, GL_FALSE, view_proj.data());
   const Eigen::Vector3f eyef = eye.cast<float>();
   glUniform3fv(mu.eye, 1, eyef.data());
-  const Eigen::Vector3f upf = up.cast<float>();
-  glUniform3fv(mu.up, 1, upf.data());
-  const Eigen::Vector3f key =
-      (pose.world_R_view * Eigen::Vector3d(-0.38, 0.62, 0.68).normalized()).cast<float>();
-  const Eigen::Vector3f fill =
-      (pose.world_R_view * Eigen::Vector3d(0.7, -0.25, 0.45).normalized()).cast<float>();
-  glUniform3fv(mu.key, 1, key.data());
-  glUniform3fv(mu.fill, 1, fill.data());
-  const Eigen::Vector3f half = (key + pose.world_R_view.col(2).cast<float>()).normalized();
-  glUniform3fv(mu.half, 1, half.data());
+  light_up = up.cast<float>();
+  light_key = (pose.world_R_view * Eigen::Vector3d(-0.38, 0.62, 0.68).normalized()).cast<float>();
+  light_fill = (pose.world_R_view * Eigen::Vector3d(0.7, -0.25, 0.45).normalized()).cast<float>();
+  light_half = (light_key + pose.world_R_view.col(2).cast<float>()).normalized();
+  glUniform3fv(mu.up, 1, light_up.data());
+  glUniform3fv(mu.key, 1, light_key.data());
+  glUniform3fv(mu.fill, 1, light_fill.data());
+  glUniform3fv(mu.half, 1, light_half.data());
+  // Edge strips of every mesh drawn with colour (edge_strips.hpp).
+  collect_edges = options.antialiasing == Antialiasing::Edges && static_cast<bool>(edge_program);
+  outline_edges = false;
+  edge_vertices.clear();
   const Eigen::Vector4f no_tint(0, 0, 0, 0), no_glow(0, 0, 0, 0);
   const Eigen::Vector3f hl = vec(palette.highlight);
   const Eigen::Vector4f glow(hl.x(), hl.y(), hl.z(), kHighlightGlow);
@@ -866,6 +937,7 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     }
   }
   gl::check("opaque pass");
+  draw_edges();
 
   if (st.show_grid && !ground_first) draw_grid();
 
@@ -878,7 +950,11 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     const Eigen::Vector3f gc = vec(palette.ghost);
     glUseProgram(mesh_program.get());
     glColorMask(GL_FALSE, GL_FALSE, GL_FALSE, GL_FALSE);
+    const bool collecting = collect_edges;
+    collect_edges = false;
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(), no_tint, 1.0f, no_glow);
+    collect_edges = collecting;
+    outline_edges = true;
     glColorMask(GL_TRUE, GL_TRUE, GL_TRUE, GL_TRUE);
     glEnable(GL_BLEND);
     glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ONE, GL_ONE);  // alpha: covered
@@ -886,9 +962,11 @@ void SceneRenderer::State::render_scene(const SceneState& st, Target& t) {
     draw_mesh(body, ghost_R_mesh, Eigen::Vector3d::Zero(),
               Eigen::Vector4f(gc.x(), gc.y(), gc.z(), kGhostTint), kGhostAlpha,
               st.highlight == Highlight::Ghost ? glow : no_glow);
+    draw_edges();
     glDepthMask(GL_TRUE);
     glDisable(GL_BLEND);
   }
+  collect_edges = false;
   glDisable(GL_DEPTH_TEST);
   footprints = nullptr;
   t.tiles = detail::footprint_tiles(st.camera, st.world, w, h, t.footprints);
@@ -1003,6 +1081,34 @@ void SceneRenderer::State::draw_labels(int w, int h) {
   gl::check("labels");
 }
 
+void SceneRenderer::State::draw_edges() {
+  if (edge_vertices.empty()) return;
+  const GLuint ep = edge_program.get();
+  glUseProgram(ep);
+  const Eigen::Vector3f eyef = eye.cast<float>();
+  glUniform3fv(eu.eye, 1, eyef.data());
+  glUniform3fv(eu.up, 1, light_up.data());
+  glUniform3fv(eu.key, 1, light_key.data());
+  glUniform3fv(eu.fill, 1, light_fill.data());
+  glUniform3fv(eu.half, 1, light_half.data());
+  glUniform1f(eu.specular, kSpecular);
+  // Over what is drawn, keeping the target's alpha; tested against the depth the meshes
+  // wrote, not writing it (strips overlap where edges meet).
+  glEnable(GL_BLEND);
+  glBlendFuncSeparate(GL_SRC_ALPHA, GL_ONE_MINUS_SRC_ALPHA, GL_ZERO, GL_ONE);
+  glDepthMask(GL_FALSE);
+  glBindVertexArray(edge_vao.get());
+  glBindBuffer(GL_ARRAY_BUFFER, edge_vbo.get());
+  glBufferData(GL_ARRAY_BUFFER, static_cast<GLsizeiptr>(edge_vertices.size() * sizeof(detail::EdgeVertex)),
+               edge_vertices.data(), GL_STREAM_DRAW);
+  glDrawArrays(GL_LINES, 0, static_cast<GLsizei>(edge_vertices.size()));
+  glDepthMask(GL_TRUE);
+  glDisable(GL_BLEND);
+  glUseProgram(mesh_program.get());
+  edge_vertices.clear();
+  gl::check("edge strips");
+}
+
 void SceneRenderer::State::smooth_scene(Target& t) {
   const int w = t.width, h = t.height;
   t.ensure_smooth();
@@ -1097,6 +1203,7 @@ GLuint SceneRenderer::State::make_picture(const SceneState& state, Target& t, in
   sized.width_px = w;
   sized.height_px = h;
   std::string picture = scene_fingerprint(sized, palette, user_mesh_generation);
+  if (options.antialiasing == Antialiasing::Edges) picture += "|edges";  // drawn into the scene
   reused = options.reuse_unchanged && t.picture == picture;
   if (!reused) {
     glBindFramebuffer(GL_FRAMEBUFFER, t.fbo.get());
@@ -1281,7 +1388,10 @@ Image SceneRenderer::render_image(const SceneState& state) {
 }
 
 void SceneRenderer::set_antialiasing(Antialiasing antialiasing) {
-  state_->options.antialiasing = antialiasing;
+  State& s = *state_;
+  s.options.antialiasing = antialiasing;
+  if (antialiasing != Antialiasing::Edges) return;
+  if (auto edge = s.ensure_edge_program(); !edge.ok()) s.warnings.push_back(edge.error().message);
 }
 
 void SceneRenderer::set_user_mesh(const Mesh& mesh) {

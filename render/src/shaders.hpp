@@ -1,6 +1,8 @@
 // shaders.hpp (internal): GLSL 3.30 core sources of the scene renderer.
 #pragma once
 
+#include <string>
+
 namespace attiscope::render::detail {
 
 // Lit meshes: a key light from the viewer's upper left, a weak fill from the right, a
@@ -11,7 +13,42 @@ namespace attiscope::render::detail {
 // key light's half vector with it) and the power by squaring. On a software rasteriser every
 // instruction of the fragment shader runs for every covered pixel while the vertex shader
 // runs a few thousand times a frame.
-inline const char* kMeshVertex = R"(#version 330 core
+//
+// The shading both the meshes and their edge strips (kEdgeVertex) use, after the version
+// line (with_shading).
+inline const char* kShadeFunctions = R"(
+uniform vec3 u_up;
+uniform vec3 u_key;
+uniform vec3 u_fill;
+uniform vec3 u_half;
+// The lit colour of `base` with normal n (towards the viewer) and view direction v, and a
+// highlight's glow (rgb, amount).
+vec3 shade(vec3 base, vec3 n, vec3 v, vec4 glow) {
+  float hemi = 0.5 + 0.5 * dot(n, u_up);
+  vec3 ambient = mix(vec3(0.34, 0.34, 0.37), vec3(0.52, 0.52, 0.54), hemi);
+  float key = max(dot(n, u_key), 0.0);
+  float fill = max(dot(n, u_fill), 0.0);
+  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill);
+  float rim = pow(1.0 - max(dot(n, v), 0.0), 2.0);
+  return mix(c, glow.rgb, glow.a * (0.35 + 0.65 * rim));
+}
+// The key light's highlight at a pixel of (interpolated) normal n.
+float highlight(vec3 n) {
+  float s = max(dot(normalize(n), u_half), 0.0);
+  s *= s;  // s^2
+  s *= s;  // s^4
+  float s8 = s * s;
+  s = s8 * s8;  // s^16
+  return s * s * s8;  // s^40
+}
+)";
+
+/// A shader source: the version line, kShadeFunctions, then `body`.
+inline std::string with_shading(const char* body) {
+  return std::string("#version 330 core\n") + kShadeFunctions + body;
+}
+
+inline const char* kMeshVertex = R"(
 layout(location = 0) in vec3 a_pos;
 layout(location = 1) in vec3 a_normal;
 layout(location = 2) in vec4 a_color;
@@ -19,9 +56,6 @@ uniform mat4 u_model;
 uniform mat3 u_normal_matrix;
 uniform mat4 u_view_proj;
 uniform vec3 u_eye;
-uniform vec3 u_up;
-uniform vec3 u_key;
-uniform vec3 u_fill;
 uniform vec4 u_tint;        // rgb, and how much it replaces the vertex colour
 uniform vec4 u_glow;        // rgb, amount
 out vec3 v_color;
@@ -31,34 +65,62 @@ void main() {
   vec3 n = normalize(u_normal_matrix * a_normal);
   vec3 v = normalize(u_eye - w.xyz);
   if (dot(n, v) < 0.0) n = -n;  // two-sided: thin parts and open shells
-  vec3 base = mix(a_color.rgb, u_tint.rgb, u_tint.a);
-  float hemi = 0.5 + 0.5 * dot(n, u_up);
-  vec3 ambient = mix(vec3(0.34, 0.34, 0.37), vec3(0.52, 0.52, 0.54), hemi);
-  float key = max(dot(n, u_key), 0.0);
-  float fill = max(dot(n, u_fill), 0.0);
-  vec3 c = base * (ambient + 0.60 * key + 0.20 * fill);
-  float rim = pow(1.0 - max(dot(n, v), 0.0), 2.0);
-  v_color = mix(c, u_glow.rgb, u_glow.a * (0.35 + 0.65 * rim));
+  v_color = shade(mix(a_color.rgb, u_tint.rgb, u_tint.a), n, v, u_glow);
   v_normal = n;
   gl_Position = u_view_proj * w;
 }
 )";
 
-inline const char* kMeshFragment = R"(#version 330 core
+inline const char* kMeshFragment = R"(
 in vec3 v_color;
 in vec3 v_normal;
-uniform vec3 u_half;
 uniform float u_alpha;
-uniform float u_spec;       // 0 under a highlight's glow
+uniform float u_spec;       // muted under a highlight's glow
 out vec4 o_color;
 void main() {
-  float s = max(dot(normalize(v_normal), u_half), 0.0);
-  s *= s;  // s^2
-  s *= s;  // s^4
-  float s8 = s * s;
-  s = s8 * s8;  // s^16
-  s = s * s * s8;  // s^40
-  o_color = vec4(v_color + vec3(u_spec * s), u_alpha);
+  o_color = vec4(v_color + vec3(u_spec * highlight(v_normal)), u_alpha);
+}
+)";
+
+// Edge strips (edge_strips.hpp): placed on the CPU in normalised device coordinates, shaded
+// like the mesh they belong to, blended with the coverage falling from the edge outwards.
+inline const char* kEdgeVertex = R"(
+layout(location = 0) in vec3 a_ndc;
+layout(location = 1) in vec3 a_world;
+layout(location = 2) in vec3 a_normal;
+layout(location = 3) in vec4 a_color;   // rgb, the mesh's alpha
+layout(location = 4) in vec4 a_glow;
+layout(location = 5) in vec3 a_edge;   // window pixels: outward normal, offset
+uniform vec3 u_eye;
+uniform float u_specular;               // the highlight's strength without a glow
+out vec3 v_color;
+out vec3 v_normal;
+out float v_alpha;
+out float v_spec;
+flat out vec3 v_edge;
+void main() {
+  vec3 n = normalize(a_normal);
+  vec3 v = normalize(u_eye - a_world);
+  if (dot(n, v) < 0.0) n = -n;
+  v_color = shade(a_color.rgb, n, v, a_glow);
+  v_normal = n;
+  v_alpha = a_color.a;
+  v_spec = u_specular * (1.0 - 0.5 * a_glow.a);
+  v_edge = a_edge;
+  gl_Position = vec4(a_ndc, 1.0);
+}
+)";
+
+inline const char* kEdgeFragment = R"(
+in vec3 v_color;
+in vec3 v_normal;
+in float v_alpha;
+in float v_spec;
+flat in vec3 v_edge;
+out vec4 o_color;
+void main() {
+  float out_px = dot(v_edge.xy, gl_FragCoord.xy) - v_edge.z;
+  o_color = vec4(v_color + vec3(v_spec * highlight(v_normal)), v_alpha * clamp(1.0 - out_px, 0.0, 1.0));
 }
 )";
 

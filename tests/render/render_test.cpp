@@ -119,11 +119,8 @@ TEST_F(RenderTest, KeptSceneIsReusedOnlyWhenNothingChanged) {
   EXPECT_EQ(drawn.rgba, first.rgba);
 }
 
-// A 90-degree turn about world z takes the body x axis onto the world y axis (R_z(90) e_x =
-// e_y, the active rotation of design.md), so its tip must be drawn where the identity pose
-// drew the y tip, and in x red where that picture had y green.
 // A view keeps its last picture and puts back only what the meshes covered (the ground
-// picture shows elsewhere): a picture drawn after other poses, with and without smoothing,
+// picture shows elsewhere): a picture drawn after other poses, with each antialiasing,
 // must equal the same picture drawn by a renderer with no history, pixel for pixel.
 TEST_F(RenderTest, PictureAfterOtherPosesEqualsAFreshOne) {
   auto pose = [](double yaw, double pitch, double roll) {
@@ -144,6 +141,8 @@ TEST_F(RenderTest, PictureAfterOtherPosesEqualsAFreshOne) {
   r.set_antialiasing(Antialiasing::None);
   (void)r.render_image(pose(-60, 10, -20));
   r.set_antialiasing(Antialiasing::Post);
+  (void)r.render_image(pose(20, -30, 45));
+  r.set_antialiasing(Antialiasing::Edges);  // the default, as the fresh renderers draw
   SceneState last = pose(10, 70, 0);
   last.ghost_world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(40, 25, 5) * kDeg);
   const Image fourth = r.render_image(last);
@@ -156,6 +155,56 @@ TEST_F(RenderTest, PictureAfterOtherPosesEqualsAFreshOne) {
   EXPECT_EQ(fresh_last.value()->render_image(last).rgba, fourth.rgba);
 }
 
+// The edge strips (edge_strips.hpp) change only pixels at a colour edge of the plain
+// picture, and there they put colours between the two sides: a stair step becomes a ramp.
+TEST_F(RenderTest, EdgeStripsSmoothOnlyTheEdges) {
+  SceneState s;
+  s.width_px = 320;
+  s.height_px = 240;
+  s.model.kind = ModelKind::Box;
+  s.show_grid = false;  // a plain background, so every colour edge is a mesh's
+  s.show_labels = false;
+  s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(33, 17, 8) * kDeg);
+  auto plain_r = SceneRenderer::create({Antialiasing::None, true});
+  auto edges_r = SceneRenderer::create({Antialiasing::Edges, true});
+  ASSERT_TRUE(plain_r.ok() && edges_r.ok());
+  const Image plain = plain_r.value()->render_image(s);
+  const Image smooth = edges_r.value()->render_image(s);
+  auto colour = [](const Image& img, int x, int y) {
+    const std::uint8_t* p = img.pixel(std::clamp(x, 0, img.width - 1), std::clamp(y, 0, img.height - 1));
+    return Eigen::Vector3d(p[0], p[1], p[2]);
+  };
+  int changed = 0, between = 0;
+  for (int y = 0; y < s.height_px; ++y) {
+    for (int x = 0; x < s.width_px; ++x) {
+      const Eigen::Vector3d a = colour(plain, x, y), b = colour(smooth, x, y);
+      if ((a - b).cwiseAbs().maxCoeff() < 2.0) continue;
+      ++changed;
+      // A plain pixel within two of it has a clearly different colour (an edge is there).
+      double jump = 0.0;
+      for (int dy = -2; dy <= 2; ++dy)
+        for (int dx = -2; dx <= 2; ++dx) jump = std::max(jump, (colour(plain, x + dx, y + dy) - a).norm());
+      EXPECT_GT(jump, 20.0) << "changed away from an edge at " << x << ", " << y;
+      // The new colour lies between this pixel's plain colour and a neighbour's.
+      bool is_between = false;
+      for (int dy = -1; dy <= 1; ++dy) {
+        for (int dx = -1; dx <= 1; ++dx) {
+          const Eigen::Vector3d c = colour(plain, x + dx, y + dy);
+          const Eigen::Vector3d lo = a.cwiseMin(c).array() - 3.0, hi = a.cwiseMax(c).array() + 3.0;
+          is_between = is_between || ((c - a).norm() > 20.0 && (b.array() >= lo.array()).all() &&
+                                      (b.array() <= hi.array()).all());
+        }
+      }
+      between += is_between;
+    }
+  }
+  EXPECT_GT(changed, 200);  // the box's outline alone runs for several hundred pixels
+  EXPECT_GT(between, changed * 3 / 4);
+}
+
+// A 90-degree turn about world z takes the body x axis onto the world y axis (R_z(90) e_x =
+// e_y, the active rotation of design.md), so its tip must be drawn where the identity pose
+// drew the y tip, and in x red where that picture had y green.
 TEST_F(RenderTest, QuarterTurnAboutWorldZMovesXTipToYTip) {
   // Views in which no part of the box can hide the tips (it reaches 0.78 from its centre).
   for (ViewPreset view : {ViewPreset::Top, ViewPreset::Front, ViewPreset::Bottom}) {

@@ -1,6 +1,7 @@
 // scene_renderer.hpp: draws a SceneState with OpenGL 3.3 core: lit, depth-tested body,
 // ground grid, world and body triads with letter labels, a translucent reference ghost and
-// the gimbal rings; antialiased by a post pass (FXAA-style, cheap on llvmpipe).
+// the gimbal rings; antialiased by one-pixel strips blended along the meshes' outlines,
+// creases and borders (edge_strips.hpp), or by a post pass (FXAA-style) when asked.
 //
 // Needs a current OpenGL 3.3 core context (the window's, or a HeadlessContext) for its whole
 // life; create, use and destroy it on that context's thread. It never includes ImGui.
@@ -9,7 +10,8 @@
 //  - draw(): into a region of the framebuffer bound now (the window's). The scene is drawn
 //    into an offscreen target of the region's size (one whole-buffer clear, which llvmpipe
 //    does at memory speed, where a scissored clear or a background quad is shaded pixel by
-//    pixel), smoothed offscreen (only over the tiles the drawn meshes' footprints touch),
+//    pixel), with the edge strips drawn after the meshes (or smoothed offscreen by the post
+//    pass, only over the tiles the drawn meshes' footprints touch),
 //    copied into the region by a blit (no blending, unlike an ImGui::Image quad; into an X
 //    window, whose rows run top-down, llvmpipe still shades it, about 4 ns a pixel) and
 //    labelled in place. Closed meshes are drawn with back faces culled. While the camera
@@ -52,13 +54,14 @@ struct RegionPart {
 };
 
 enum class Antialiasing {
-  None,  ///< straight into the target
-  Post,  ///< draw into an internal target, then an edge-aware smoothing pass (default)
+  None,   ///< straight into the target
+  Post,   ///< draw into an internal target, then an edge-aware smoothing pass
+  Edges,  ///< blended one-pixel strips along the meshes' edges (edge_strips.hpp; default)
 };
 
 struct RendererOptions {
-  Antialiasing antialiasing = Antialiasing::Post;
-  /// Keep each view's offscreen scene (and its smoothed copy) and show it again when the next
+  Antialiasing antialiasing = Antialiasing::Edges;
+  /// Keep each view's offscreen scene (and any smoothed copy) and show it again when the next
   /// draw of that size has the same pose, camera, overlays and palette (only the labels are
   /// redone).
   bool reuse_unchanged = true;
