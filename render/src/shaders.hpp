@@ -82,8 +82,10 @@ void main() {
 }
 )";
 
-// Edge strips (edge_strips.hpp): placed on the CPU in normalised device coordinates, shaded
-// like the mesh they belong to, blended with the coverage falling from the edge outwards.
+// Edge strips (edge_strips.hpp): one-pixel lines placed on the CPU in normalised device
+// coordinates, shaded like the mesh they belong to (one colour a line: flat values cost a
+// line's setup much less than interpolated ones), blended with the coverage falling from
+// the edge outwards.
 inline const char* kEdgeVertex = R"(
 layout(location = 0) in vec3 a_ndc;
 layout(location = 1) in vec3 a_world;
@@ -93,34 +95,26 @@ layout(location = 4) in vec4 a_glow;
 layout(location = 5) in vec3 a_edge;   // window pixels: outward normal, offset
 uniform vec3 u_eye;
 uniform float u_specular;               // the highlight's strength without a glow
-out vec3 v_color;
-out vec3 v_normal;
-out float v_alpha;
-out float v_spec;
+flat out vec4 v_color;
 flat out vec3 v_edge;
 void main() {
   vec3 n = normalize(a_normal);
   vec3 v = normalize(u_eye - a_world);
   if (dot(n, v) < 0.0) n = -n;
-  v_color = shade(a_color.rgb, n, v, a_glow);
-  v_normal = n;
-  v_alpha = a_color.a;
-  v_spec = u_specular * (1.0 - 0.5 * a_glow.a);
+  float spec = u_specular * (1.0 - 0.5 * a_glow.a) * highlight(n);
+  v_color = vec4(shade(a_color.rgb, n, v, a_glow) + vec3(spec), a_color.a);
   v_edge = a_edge;
   gl_Position = vec4(a_ndc, 1.0);
 }
 )";
 
 inline const char* kEdgeFragment = R"(
-in vec3 v_color;
-in vec3 v_normal;
-in float v_alpha;
-in float v_spec;
+flat in vec4 v_color;
 flat in vec3 v_edge;
 out vec4 o_color;
 void main() {
   float out_px = dot(v_edge.xy, gl_FragCoord.xy) - v_edge.z;
-  o_color = vec4(v_color + vec3(v_spec * highlight(v_normal)), v_alpha * clamp(1.0 - out_px, 0.0, 1.0));
+  o_color = vec4(v_color.rgb, v_color.a * clamp(1.0 - out_px, 0.0, 1.0));
 }
 )";
 
