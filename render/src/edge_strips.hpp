@@ -2,10 +2,11 @@
 // wherever a mesh's colour jumps: along its outline against what lies behind it, along a
 // crease or a colour change between two of its faces, along the border of an open part or
 // a decal. Each such edge on the screen gets a strip one pixel wide on the side away from
-// the face whose colour it carries, shaded like that face and blended with a coverage that
-// falls from 1 at the edge to 0 a pixel out: the edge shows smooth, half a pixel further
-// out. The strips hold only the edges' pixels, where a post pass over the picture shades
-// every pixel near a mesh (on a software rasteriser each shaded pixel costs).
+// the face whose colour it carries (drawn as a one-pixel line half a pixel out), shaded
+// like that face and blended with a coverage that falls from 1 at the edge to 0 a pixel
+// out: the edge shows smooth, half a pixel further out. The strips hold only the edges'
+// pixels, where a post pass over the picture shades every pixel near a mesh (on a software
+// rasteriser each shaded pixel costs).
 #pragma once
 
 #include <array>
@@ -77,8 +78,8 @@ struct EdgePlacement {
 /// faces behind its edge passes the depth test (about 7 mm at the Scene view's distance).
 inline constexpr float kEdgeDepthBias = 2e-5f;
 
-/// Appends the strips of the edges of a mesh that show with `placement`: six vertices (two
-/// triangles) an edge. Edges with a corner behind the eye are left out.
+/// Appends the strips of the edges of a mesh that show with `placement`: two vertices (a
+/// line, GL_LINES) an edge. Edges with a corner outside the near or far plane are left out.
 void append_edge_strips(const MeshEdges& edges, const EdgePlacement& placement, std::vector<EdgeVertex>* out);
 
 }  // namespace attiscope::render::detail
