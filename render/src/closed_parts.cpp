@@ -14,14 +14,6 @@ namespace attiscope::render::detail {
 
 namespace {
 
-struct CornerHash {
-  std::size_t operator()(const std::array<long long, 3>& k) const {
-    std::size_t h = 1469598103934665603ull;
-    for (long long v : k) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
-    return h;
-  }
-};
-
 /// Union-find over welded corners.
 struct Parts {
   std::vector<std::uint32_t> parent;
@@ -34,18 +26,27 @@ struct Parts {
 
 }  // namespace
 
+WeldKey weld_key(const std::array<float, 3>& position) {
+  WeldKey k;
+  for (int a = 0; a < 3; ++a) k[a] = std::llround(static_cast<double>(position[a]) / kWeldTolerance);
+  return k;
+}
+
+std::size_t WeldKeyHash::operator()(const WeldKey& k) const {
+  std::size_t h = 1469598103934665603ull;  // FNV-1a's offset basis and prime
+  for (long long v : k) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
+  return h;
+}
+
 ClosedFirst closed_parts_first(const Mesh& mesh) {
   ClosedFirst out;
   const std::size_t n_tri = mesh.indices.size() / 3;
   // Weld corners: one id per position (on a grid of kWeldTolerance).
-  std::unordered_map<std::array<long long, 3>, std::uint32_t, CornerHash> ids;
+  std::unordered_map<WeldKey, std::uint32_t, WeldKeyHash> ids;
   std::vector<std::uint32_t> corner(mesh.vertices.size());
-  for (std::size_t i = 0; i < mesh.vertices.size(); ++i) {
-    std::array<long long, 3> k;
-    for (int a = 0; a < 3; ++a)
-      k[a] = std::llround(static_cast<double>(mesh.vertices[i].position[a]) / kWeldTolerance);
-    corner[i] = ids.emplace(k, static_cast<std::uint32_t>(ids.size())).first->second;
-  }
+  for (std::size_t i = 0; i < mesh.vertices.size(); ++i)
+    corner[i] = ids.emplace(weld_key(mesh.vertices[i].position), static_cast<std::uint32_t>(ids.size()))
+                    .first->second;
   Parts parts;
   parts.parent.resize(ids.size());
   std::iota(parts.parent.begin(), parts.parent.end(), 0u);

@@ -2,6 +2,7 @@
 // parts, whose back faces can never show and so need not be rasterised.
 #pragma once
 
+#include <array>
 #include <cstddef>
 #include <cstdint>
 #include <vector>
@@ -32,5 +33,12 @@ inline constexpr std::size_t kMaxPartBounds = 48;
 
 /// Corners closer than this (in model units, per axis) are taken as one.
 inline constexpr double kWeldTolerance = 1e-5;
+
+/// A corner's place on the grid of kWeldTolerance: corners with the same key are welded.
+using WeldKey = std::array<long long, 3>;
+WeldKey weld_key(const std::array<float, 3>& position);
+struct WeldKeyHash {
+  std::size_t operator()(const WeldKey& k) const;
+};
 
 }  // namespace attiscope::render::detail

@@ -11,14 +11,6 @@ namespace attiscope::render::detail {
 
 namespace {
 
-struct CornerHash {
-  std::size_t operator()(const std::array<long long, 3>& k) const {
-    std::size_t h = 1469598103934665603ull;
-    for (long long v : k) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
-    return h;
-  }
-};
-
 bool same_shade(const MeshEdges::CornerShade& p, const MeshEdges::CornerShade& q) {
   constexpr float kSameNormal = 0.9999f, kSameColor = 1e-4f;
   const float np = p.normal.norm(), nq = q.normal.norm();
@@ -35,14 +27,12 @@ float cross2(const Eigen::Vector2f& u, const Eigen::Vector2f& v) {
 MeshEdges find_mesh_edges(const Mesh& mesh, const std::vector<std::uint32_t>& indices,
                           std::size_t closed_count) {
   MeshEdges out;
-  std::unordered_map<std::array<long long, 3>, std::uint32_t, CornerHash> ids;
+  std::unordered_map<WeldKey, std::uint32_t, WeldKeyHash> ids;
   std::vector<std::uint32_t> corner_of(mesh.vertices.size(), MeshEdges::kNoFace);
   auto corner = [&](std::uint32_t v) {
     if (corner_of[v] != MeshEdges::kNoFace) return corner_of[v];
     const auto& p = mesh.vertices[v].position;
-    std::array<long long, 3> k;
-    for (int a = 0; a < 3; ++a) k[a] = std::llround(static_cast<double>(p[a]) / kWeldTolerance);
-    auto [it, added] = ids.emplace(k, static_cast<std::uint32_t>(out.corners.size()));
+    auto [it, added] = ids.emplace(weld_key(p), static_cast<std::uint32_t>(out.corners.size()));
     if (added) out.corners.emplace_back(p[0], p[1], p[2]);
     return corner_of[v] = it->second;
   };
@@ -112,8 +102,8 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
   const Eigen::Matrix3f normal_matrix = p.linear.inverse().transpose().cast<float>();
   const bool mirrored = p.linear.determinant() < 0.0;
   const float half_w = 0.5f * static_cast<float>(p.width), half_h = 0.5f * static_cast<float>(p.height);
-  // Corners on the screen: GL window pixels (origin bottom-left) and depth; `ok` when in
-  // front of the near plane.
+  // Corners on the screen: GL window pixels (origin bottom-left) and depth; `ok` when
+  // between the near and far planes.
   std::vector<Eigen::Vector3f> screen(n);
   std::vector<std::uint8_t> ok(n);
   for (std::size_t i = 0; i < n; ++i) {
@@ -171,7 +161,6 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
     const Eigen::Vector2f d = pb - pa;
     const float length = d.norm();
     if (length < 1e-4f) continue;
-
     const Eigen::Vector2f outward = Eigen::Vector2f(-d.y(), d.x()) * (-side(carrier, e) / length);
     // A one-pixel line half a pixel out, over the pixels just outside the edge.
     const float c = outward.dot(pa);
