@@ -53,28 +53,35 @@ MeshEdges find_mesh_edges(const Mesh& mesh, const std::vector<std::uint32_t>& in
     if (i < closed_count) out.closed_faces = face + 1;
     out.faces.push_back(f);
     out.shades.push_back(sh);
+    std::array<std::uint32_t, 3>& fe = out.face_edges.emplace_back();
     for (int k = 0; k < 3; ++k) {
       const std::uint32_t a = std::min(f[k], f[(k + 1) % 3]), b = std::max(f[k], f[(k + 1) % 3]);
       const std::uint64_t key = (static_cast<std::uint64_t>(a) << 32) | b;
       auto [it, added] = edge_at.emplace(key, out.edges.size());
       if (added) {
+        fe[k] = static_cast<std::uint32_t>(out.edges.size());
         out.edges.push_back({a, b, {face, MeshEdges::kNoFace}, false});
         met.push_back(1);
         continue;
       }
       const std::size_t first = it->second;
       if (met[first] == 1) {
+        fe[k] = static_cast<std::uint32_t>(first);
         out.edges[first].face[1] = face;
         met[first] = 2;
         continue;
       }
       // A third triangle or more on the edge: a border of each.
       if (met[first] == 2) {
-        out.edges.push_back({a, b, {out.edges[first].face[1], MeshEdges::kNoFace}, false});
+        const std::uint32_t second = out.edges[first].face[1];
+        for (std::uint32_t& e : out.face_edges[second])
+          if (e == first) e = static_cast<std::uint32_t>(out.edges.size());
+        out.edges.push_back({a, b, {second, MeshEdges::kNoFace}, false});
         met.push_back(0);
         out.edges[first].face[1] = MeshEdges::kNoFace;
         met[first] = 3;
       }
+      fe[k] = static_cast<std::uint32_t>(out.edges.size());
       out.edges.push_back({a, b, {face, MeshEdges::kNoFace}, false});
       met.push_back(0);
     }
@@ -114,13 +121,16 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
     screen[i] = {(c.x() * iw + 1.0f) * half_w, (c.y() * iw + 1.0f) * half_h, c.z() * iw};
   }
   auto at = [&](std::uint32_t c) { return Eigen::Vector2f(screen[c].x(), screen[c].y()); };
-  // Faces: 1 front, -1 back (as the rasteriser's culling sees them), 0 not all in front.
+  // Faces: 1 front, -1 back (as the rasteriser's culling sees them), 0 not all in front;
+  // and the square pixels each covers.
   std::vector<std::int8_t> facing(edges.faces.size());
+  std::vector<float> area(edges.faces.size());
   for (std::size_t f = 0; f < edges.faces.size(); ++f) {
     const auto& c = edges.faces[f];
     if (!ok[c[0]] || !ok[c[1]] || !ok[c[2]]) continue;
-    const bool ccw = cross2(at(c[1]) - at(c[0]), at(c[2]) - at(c[0])) > 0.0f;
-    facing[f] = ccw != mirrored ? 1 : -1;
+    const float twice = cross2(at(c[1]) - at(c[0]), at(c[2]) - at(c[0]));
+    facing[f] = (twice > 0.0f) != mirrored ? 1 : -1;
+    area[f] = 0.5f * std::abs(twice);
   }
   auto visible = [&](std::uint32_t f) {
     return f != MeshEdges::kNoFace && facing[f] != 0 && (f >= edges.closed_faces || facing[f] > 0);
@@ -145,18 +155,43 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
     const Eigen::Vector3f to_eye = (p.eye.cast<float>() - world(c)).normalized();
     return std::abs(nrm.dot(to_eye));
   };
-  for (const MeshEdges::Edge& e : edges.edges) {
+  // The face whose colour shows just inside an outline carried by `carrier` on edge `from`
+  // (kSliverPx2).
+  auto inside_face = [&](std::uint32_t carrier, std::uint32_t from) {
+    std::uint32_t f = carrier;
+    for (int step = 0; step < kSliverSteps && area[f] < kSliverPx2; ++step) {
+      std::uint32_t best = MeshEdges::kNoFace, via = from;
+      for (std::uint32_t ei : edges.face_edges[f]) {
+        if (ei == from) continue;
+        const MeshEdges::Edge& across = edges.edges[ei];
+        const std::uint32_t g = across.face[0] == f ? across.face[1] : across.face[0];
+        if (visible(g) && (best == MeshEdges::kNoFace || area[g] > area[best])) {
+          best = g;
+          via = ei;
+        }
+      }
+      if (best == MeshEdges::kNoFace) break;
+      f = best;
+      from = via;
+    }
+    return f;
+  };
+  for (std::uint32_t ei = 0; ei < edges.edges.size(); ++ei) {
+    const MeshEdges::Edge& e = edges.edges[ei];
     if (!ok[e.a] || !ok[e.b]) continue;
     const bool v0 = visible(e.face[0]), v1 = visible(e.face[1]);
     if (!v0 && !v1) continue;
     std::uint32_t carrier = v0 ? e.face[0] : e.face[1];
+    std::uint32_t shown = carrier;  // whose shading the line takes
     if (v0 && v1 && side(e.face[0], e) != side(e.face[1], e)) {
       // Faces on both sides: a crease or a change of colour, unless the shading runs on.
       if (e.smooth || p.outline_only) continue;
       // The squarer face carries its colour over the one seen more edge-on.
-      if (squareness(e.face[1], e.a) > squareness(e.face[0], e.a)) carrier = e.face[1];
+      if (squareness(e.face[1], e.a) > squareness(e.face[0], e.a)) carrier = shown = e.face[1];
+    } else {
+      // One face shows (an outline, a border) or both lie on one side (a fold).
+      shown = inside_face(carrier, ei);
     }
-    // Otherwise one face shows (an outline, a border) or both lie on one side (a fold).
     const Eigen::Vector2f pa = at(e.a), pb = at(e.b);
     const Eigen::Vector2f d = pb - pa;
     const float length = d.norm();
@@ -164,8 +199,17 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
     const Eigen::Vector2f outward = Eigen::Vector2f(-d.y(), d.x()) * (-side(carrier, e) / length);
     // A one-pixel line half a pixel out, over the pixels just outside the edge.
     const float c = outward.dot(pa);
+    // The shading at a corner of the edge: the carrier's own there, or the mean over the
+    // corners of the face shown inside.
+    MeshEdges::CornerShade inside{Eigen::Vector3f::Zero(), Eigen::Vector4f::Zero()};
+    if (shown != carrier) {
+      for (const MeshEdges::CornerShade& corner_shade : edges.shades[shown]) {
+        inside.normal += corner_shade.normal;
+        inside.color += corner_shade.color / 3.0f;
+      }
+    }
     auto vertex = [&](std::uint32_t corner, const Eigen::Vector2f& px) {
-      const MeshEdges::CornerShade& s = shade_at(carrier, corner);
+      const MeshEdges::CornerShade& s = shown == carrier ? shade_at(carrier, corner) : inside;
       const Eigen::Vector3f base = s.color.head<3>() * (1.0f - p.tint.w()) + p.tint.head<3>() * p.tint.w();
       const Eigen::Vector3f w = world(corner), nrm = normal_matrix * s.normal;
       EdgeVertex v{};

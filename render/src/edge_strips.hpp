@@ -39,6 +39,7 @@ struct MeshEdges {
   std::vector<std::array<CornerShade, 3>> shades;   ///< per triangle corner
   std::size_t closed_faces = 0;                     ///< faces [0, closed_faces) are drawn one-sided
   std::vector<Edge> edges;
+  std::vector<std::array<std::uint32_t, 3>> face_edges;  ///< the edges of each triangle
 };
 
 /// The edges of `mesh` drawn with `indices` (triangles), whose first `closed_count` indices
@@ -73,6 +74,13 @@ struct EdgePlacement {
   /// blend it twice).
   bool outline_only = false;
 };
+
+/// An outline's carrying face covering less than this on the screen, square pixels, is a
+/// sliver seen edge-on (on a dense mesh with a normal per face): its line takes the colour
+/// of the first face inward that covers a pixel, found in at most kSliverSteps steps
+/// across neighbouring faces, as that is the colour the pixels inside the outline show.
+inline constexpr float kSliverPx2 = 1.0f;
+inline constexpr int kSliverSteps = 4;
 
 /// Pulled towards the eye by this much in normalised device depth, so a strip lying on the
 /// faces behind its edge passes the depth test (about 7 mm at the Scene view's distance).
