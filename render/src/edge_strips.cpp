@@ -87,14 +87,10 @@ MeshEdges find_mesh_edges(const Mesh& mesh, const std::vector<std::uint32_t>& in
     }
   }
   // An edge is smooth when both faces shade its two ends alike.
-  auto shade_at = [&](std::uint32_t face, std::uint32_t c) -> const MeshEdges::CornerShade& {
-    const auto& f = out.faces[face];
-    return out.shades[face][c == f[0] ? 0 : (c == f[1] ? 1 : 2)];
-  };
   for (MeshEdges::Edge& e : out.edges) {
     if (e.face[1] == MeshEdges::kNoFace) continue;
-    e.smooth = same_shade(shade_at(e.face[0], e.a), shade_at(e.face[1], e.a)) &&
-               same_shade(shade_at(e.face[0], e.b), shade_at(e.face[1], e.b));
+    e.smooth = same_shade(out.shade(e.face[0], e.a), out.shade(e.face[1], e.a)) &&
+               same_shade(out.shade(e.face[0], e.b), out.shade(e.face[1], e.b));
   }
   return out;
 }
@@ -135,10 +131,6 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
   auto visible = [&](std::uint32_t f) {
     return f != MeshEdges::kNoFace && facing[f] != 0 && (f >= edges.closed_faces || facing[f] > 0);
   };
-  auto shade_at = [&](std::uint32_t face, std::uint32_t c) -> const MeshEdges::CornerShade& {
-    const auto& f = edges.faces[face];
-    return edges.shades[face][c == f[0] ? 0 : (c == f[1] ? 1 : 2)];
-  };
   // Which side of the edge a face lies on (the sign of its third corner).
   auto side = [&](std::uint32_t face, const MeshEdges::Edge& e) {
     const auto& f = edges.faces[face];
@@ -151,7 +143,7 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
   };
   // How squarely a face looks at the eye at corner c.
   auto squareness = [&](std::uint32_t face, std::uint32_t c) {
-    const Eigen::Vector3f nrm = (normal_matrix * shade_at(face, c).normal).normalized();
+    const Eigen::Vector3f nrm = (normal_matrix * edges.shade(face, c).normal).normalized();
     const Eigen::Vector3f to_eye = (p.eye.cast<float>() - world(c)).normalized();
     return std::abs(nrm.dot(to_eye));
   };
@@ -209,7 +201,7 @@ void append_edge_strips(const MeshEdges& edges, const EdgePlacement& p, std::vec
       }
     }
     auto vertex = [&](std::uint32_t corner, const Eigen::Vector2f& px) {
-      const MeshEdges::CornerShade& s = shown == carrier ? shade_at(carrier, corner) : inside;
+      const MeshEdges::CornerShade& s = shown == carrier ? edges.shade(carrier, corner) : inside;
       const Eigen::Vector3f base = s.color.head<3>() * (1.0f - p.tint.w()) + p.tint.head<3>() * p.tint.w();
       const Eigen::Vector3f w = world(corner), nrm = normal_matrix * s.normal;
       EdgeVertex v{};

@@ -40,6 +40,12 @@ struct MeshEdges {
   std::size_t closed_faces = 0;                     ///< faces [0, closed_faces) are drawn one-sided
   std::vector<Edge> edges;
   std::vector<std::array<std::uint32_t, 3>> face_edges;  ///< the edges of each triangle
+
+  /// The shading of `face` at its corner `corner`.
+  const CornerShade& shade(std::uint32_t face, std::uint32_t corner) const {
+    const auto& f = faces[face];
+    return shades[face][corner == f[0] ? 0 : (corner == f[1] ? 1 : 2)];
+  }
 };
 
 /// The edges of `mesh` drawn with `indices` (triangles), whose first `closed_count` indices

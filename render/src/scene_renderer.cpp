@@ -1104,7 +1104,6 @@ void SceneRenderer::State::draw_edges() {
   glDrawArrays(GL_LINES, 0, static_cast<GLsizei>(edge_vertices.size()));
   glDepthMask(GL_TRUE);
   glDisable(GL_BLEND);
-  glUseProgram(mesh_program.get());
   edge_vertices.clear();
   gl::check("edge strips");
 }

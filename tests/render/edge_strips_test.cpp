@@ -12,6 +12,8 @@
 #include "../../render/src/closed_parts.hpp"
 #include "../../render/src/edge_strips.hpp"
 #include "../../render/src/mesh_builder.hpp"
+#include "attiscope/render/camera.hpp"
+#include "attiscope/render/frames.hpp"
 #include "attiscope/render/mesh.hpp"
 
 namespace attiscope::render {
@@ -74,30 +76,20 @@ TEST(EdgeStrips, OpenStripHasBordersOnly) {
   EXPECT_EQ(borders, 4);  // the rectangle's sides; its diagonal joins its two triangles
 }
 
-/// An orthographic-like placement: the cube seen along (1, 1, 1) from far away, in a
-/// 400 x 400 target.
+/// The cube seen along (1, 1, 1) from `distance`, in a 400 x 400 target, through the
+/// renderer's own orbit camera (ENU world: azimuth 45 degrees, elevation atan(1 / sqrt 2)).
 EdgePlacement iso_placement(double distance) {
+  Camera camera;
+  camera.azimuth_rad = std::atan2(1.0, 1.0);
+  camera.elevation_rad = std::atan(1.0 / std::sqrt(2.0));
+  camera.distance = distance;
+  camera.fov_y_rad = 20.0 * M_PI / 180.0;
+  const WorldFrame world = WorldFrame::enu();
   EdgePlacement p;
-  const Eigen::Vector3d eye = Eigen::Vector3d::Ones().normalized() * distance;
-  const Eigen::Vector3d f = -eye.normalized();
-  const Eigen::Vector3d r = f.cross(Eigen::Vector3d::UnitZ()).normalized();
-  const Eigen::Vector3d u = r.cross(f);
-  Eigen::Matrix4d view = Eigen::Matrix4d::Identity();
-  view.block<1, 3>(0, 0) = r.transpose();
-  view.block<1, 3>(1, 0) = u.transpose();
-  view.block<1, 3>(2, 0) = -f.transpose();
-  view.block<3, 1>(0, 3) = -view.block<3, 3>(0, 0) * eye;
-  const double n = 0.1, fa = 100.0, t = 1.0 / std::tan(0.5 * 20.0 * M_PI / 180.0);
-  Eigen::Matrix4d proj = Eigen::Matrix4d::Zero();
-  proj(0, 0) = t;
-  proj(1, 1) = t;
-  proj(2, 2) = -(fa + n) / (fa - n);
-  proj(2, 3) = -2.0 * fa * n / (fa - n);
-  proj(3, 2) = -1.0;
-  p.view_proj = (proj * view).cast<float>();
+  p.view_proj = (projection_matrix(camera, 400, 400) * view_matrix(camera, world)).cast<float>();
   p.linear = Eigen::Matrix3d::Identity();
   p.offset = Eigen::Vector3d::Zero();
-  p.eye = eye;
+  p.eye = camera_pose(camera, world).eye;
   p.width = 400;
   p.height = 400;
   return p;
