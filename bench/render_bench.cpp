@@ -4,7 +4,9 @@
 //
 // Prints the median and 90th percentile time of the 3D pass alone (scene, body, rings,
 // labels and the antialiasing pass) into a 900x700 region, finished with glFinish, for
-// several variants while the body turns a little every frame, the same view when nothing
+// several variants while the body turns a little every frame; under each, the same pass
+// into the view's own 900x700 target without the copy into the region and the labels over
+// it (the window's prepare() without a comparison); the same view when nothing
 // changed (the kept scene is shown again), and the readback + PNG encode of a 1024x768
 // picture. --only keeps the rows whose name holds TEXT (for a profiler); --pictures writes each
 // variant's last frame into DIR as a PNG, to look at what the antialiasing does. The whole-process
@@ -136,6 +138,15 @@ int main(int argc, char** argv) {
     });
     std::printf("3D pass 900x700, %-36s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (%zu triangles)\n",
                 v.name, f.median_ms, f.p90_ms, f.cpu_median_ms, r.value()->last_triangle_count());
+    // The same pass into the view's own 900x700 target only: without the copy into the
+    // region and the labels drawn over it (prepare() without a comparison).
+    const Figures own = time_it(frames, [&] {
+      s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30 + 0.5 * frame++, 20, 10) * kDeg);
+      if (v.rings) s.rings = to_euler(s.world_R_body, EulerConvention{});
+      (void)r.value()->prepare(s, 900, 700, 0, false);
+    });
+    std::printf("  into its own target, %-31s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms\n",
+                "no copy, no labels", own.median_ms, own.p90_ms, own.cpu_median_ms);
     if (v.aa == Antialiasing::Edges && !v.rings) {
       const Figures u = time_it(frames, [&] { r.value()->draw(s, region); });
       std::printf("3D view 900x700, %-35s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (reused: %s)\n",
