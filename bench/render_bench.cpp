@@ -131,9 +131,12 @@ int main(int argc, char** argv) {
     // The body turns a little every frame, as in the window while it is turned (an unchanged
     // scene would be reused, not drawn again).
     int frame = 0;
-    const Figures f = time_it(frames, [&] {
+    auto turn = [&] {
       s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30 + 0.5 * frame++, 20, 10) * kDeg);
       if (v.rings) s.rings = to_euler(s.world_R_body, EulerConvention{});
+    };
+    const Figures f = time_it(frames, [&] {
+      turn();
       r.value()->draw(s, region);
     });
     std::printf("3D pass 900x700, %-36s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms  (%zu triangles)\n",
@@ -141,8 +144,7 @@ int main(int argc, char** argv) {
     // The same pass into the view's own 900x700 target only: without the copy into the
     // region and the labels drawn over it (prepare() without a comparison).
     const Figures own = time_it(frames, [&] {
-      s.world_R_body = from_euler(EulerConvention{}, Eigen::Vector3d(30 + 0.5 * frame++, 20, 10) * kDeg);
-      if (v.rings) s.rings = to_euler(s.world_R_body, EulerConvention{});
+      turn();
       (void)r.value()->prepare(s, 900, 700, 0, false);
     });
     std::printf("  into its own target, %-31s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms\n",
