@@ -145,7 +145,7 @@ int main(int argc, char** argv) {
     // region and the labels drawn over it (prepare() without a comparison).
     const Figures own = time_it(frames, [&] {
       turn();
-      (void)r.value()->prepare(s, 900, 700, 0, false);
+      (void)r.value()->prepare(s, region.width, region.height, 0, false);
     });
     std::printf("  into its own target, %-31s median %6.2f ms  p90 %6.2f ms  cpu %6.2f ms\n",
                 "no copy, no labels", own.median_ms, own.p90_ms, own.cpu_median_ms);
