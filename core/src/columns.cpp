@@ -263,6 +263,15 @@ AngleName angle_name(const std::string& header) {
   return out;
 }
 
+// Text that reads back as exactly v: plain digits for whole numbers below 1e17, an exponent
+// beyond, "inf" or "nan" as they are. (A cast to an integer would be undefined behaviour for
+// values out of its range.)
+std::string number_text(double v) {
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.17g", v);
+  return buf;
+}
+
 // Time unit from the magnitude of the values (Unix epoch ranges) or of their steps.
 void time_unit_from_values(const std::vector<double>& t, ColumnMapping* m) {
   const double first = std::abs(t.front());
@@ -275,7 +284,7 @@ void time_unit_from_values(const std::vector<double>& t, ColumnMapping* m) {
   // Unix time in 2001..2286 is 1e9..1e10 s.
   if (first >= 1e9 && first < 1e10) {
     m->time_unit = "s";
-    why = "values near " + std::to_string(static_cast<long long>(first)) + " look like Unix time in seconds";
+    why = "values near " + number_text(std::floor(first)) + " look like Unix time in seconds";
   } else if (first >= 1e12 && first < 1e13) {
     m->time_unit = "ms";
     why = "values look like Unix time in milliseconds";
@@ -287,13 +296,13 @@ void time_unit_from_values(const std::vector<double>& t, ColumnMapping* m) {
     why = "values look like Unix time in nanoseconds";
   } else if (integers && dt >= 1e5) {
     m->time_unit = "ns";
-    why = "integer steps of about " + std::to_string(static_cast<long long>(dt)) + " look like nanoseconds";
+    why = "integer steps of about " + number_text(dt) + " look like nanoseconds";
   } else if (integers && dt >= 100) {
     m->time_unit = "us";
-    why = "integer steps of about " + std::to_string(static_cast<long long>(dt)) + " look like microseconds";
+    why = "integer steps of about " + number_text(dt) + " look like microseconds";
   } else if (integers && dt >= 1) {
     m->time_unit = "ms";
-    why = "integer steps of about " + std::to_string(static_cast<long long>(dt)) + " look like milliseconds";
+    why = "integer steps of about " + number_text(dt) + " look like milliseconds";
   } else {
     m->time_unit = "s";
     why = "steps below one unit look like seconds";
@@ -534,12 +543,6 @@ std::size_t walk_json_line(const char* b, const char* e, F&& on_number, const ch
 bool json_line(std::string_view l) {
   const std::string t = trim(l);
   return !t.empty() && t[0] == '{';
-}
-
-std::string number_text(double v) {
-  char buf[40];
-  std::snprintf(buf, sizeof buf, "%.17g", v);
-  return buf;
 }
 
 }  // namespace

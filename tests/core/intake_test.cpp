@@ -214,6 +214,41 @@ TEST(IntakeTest, TrackIsRecognised) {
   EXPECT_EQ(res.value().track_rows, 3u);
 }
 
+TEST(ColumnsTest, TimeStepsBeyondAnyIntegerAreNamedInTheNote) {
+  // Found by the intake fuzzer: a time step of about 1e110 went through a cast to long long
+  // for the unit note, undefined behaviour that the sanitizer build stops on. The reading
+  // must go on, and the note must give the step as a number. Invented values.
+  struct Case {
+    std::string times[5];
+    std::string step;
+  };
+  const Case cases[] = {
+      {{"0.00", std::string(110, '1') + "0.01", "", "", ""}, "1.1111111111111111e+110"},
+      {{"0", "-1.7e308", "1.7e308", "-1.7e308", "1.7e308"}, "inf"},
+  };
+  for (const Case& c : cases) {
+    std::string text = "t,qw,qx,qy,qz\n";
+    for (const std::string& t : c.times) {
+      if (!t.empty()) text += t + ",1,0,0,0\n";
+    }
+    auto m = find_columns(text);
+    ASSERT_TRUE(m.ok()) << m.error().describe();
+    EXPECT_EQ(m.value().time_unit, "ns");
+    bool named = false;
+    for (const std::string& n : m.value().notes)
+      named |= n.find("about " + c.step + " ") != std::string::npos;
+    EXPECT_TRUE(named) << text;
+    auto track = read_track_text(text, m.value());
+    EXPECT_TRUE(track.ok()) << text;
+    // Two rows are too few for a track, so the paste reader may refuse them as one
+    // reading; when it does, it must name the place.
+    auto pasted = read_pasted(text);
+    if (!pasted.ok()) {
+      EXPECT_GT(pasted.error().line, 0) << pasted.error().describe();
+    }
+  }
+}
+
 TEST(ColumnsTest, StatisticsWithoutHeader) {
   // Invented log: time in milliseconds, a quaternion scalar last, an id column.
   std::string text;
