@@ -318,7 +318,9 @@ void draw_house_panel(Ui& ui) {
 }
 
 void draw_lower_tabs(Ui& ui) {
-  if (!ImGui::BeginTabBar("lower")) return;
+  // Where the tabs do not fit their names are cut short (a tooltip shows the whole name);
+  // the list button at the left names them all.
+  if (!ImGui::BeginTabBar("lower", ImGuiTabBarFlags_TabListPopupButton)) return;
   struct Tab {
     const char* label;
     const char* key;
