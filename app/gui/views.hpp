@@ -67,7 +67,8 @@ struct ExportRequest {
 
 struct ViewState {
   render::Camera camera = render::Camera::preset(render::ViewPreset::Iso);
-  render::ModelChoice model;
+  /// The demo pose is a survey aircraft's, so the window starts on the aircraft model.
+  render::ModelChoice model{render::ModelKind::Aircraft, false};
   std::string user_mesh_name;  ///< file name of the loaded OBJ/STL, when there is one
   bool show_ghost = false;
   /// The rings' convention; nullopt follows the house convention's Euler convention.
