@@ -69,6 +69,10 @@ std::string common_options_help();
 /// (or the only one is "-").
 std::string input_text(const CommonOptions& options, std::istream& in);
 
+/// When `text` (from input_text) holds nothing but white space: the message that no pose was
+/// given and where one goes, else nullopt.
+std::optional<std::string> no_pose_given(const std::string& text);
+
 int run_convert(const std::vector<std::string>& args, Streams io);
 int run_render(const std::vector<std::string>& args, Streams io);
 int run_find(const std::vector<std::string>& args, Streams io);

@@ -47,6 +47,10 @@ int run_convert(const std::vector<std::string>& args, Streams io) {
     return kExitOk;
   }
   const std::string text = input_text(o, io.in);
+  if (auto missing = no_pose_given(text)) {
+    io.err << "attiscope convert: " << *missing << "\n";
+    return kExitBadInput;
+  }
   ReportOptions report;
   report.euler = o.euler;
   report.unit = o.unit;

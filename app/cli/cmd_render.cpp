@@ -186,6 +186,10 @@ int run_render(const std::vector<std::string>& args, Streams io) {
     scene.model.user_mesh = true;
   }
   const std::string text = input_text(o, io.in);
+  if (auto missing = no_pose_given(text)) {
+    io.err << "attiscope render: " << *missing << "\n";
+    return kExitBadInput;
+  }
   auto pose = read_pose(text, o, "the pose");
   if (!pose) {
     io.err << "attiscope render: " << pose.error().describe() << "\n";

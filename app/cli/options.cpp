@@ -127,4 +127,9 @@ std::string input_text(const CommonOptions& o, std::istream& in) {
   return text;
 }
 
+std::optional<std::string> no_pose_given(const std::string& text) {
+  if (text.find_first_not_of(" \t\r\n") != std::string::npos) return std::nullopt;
+  return "no pose given: pass it as TEXT (e.g. \"1 0 0 0\") or on standard input";
+}
+
 }  // namespace attiscope::cli

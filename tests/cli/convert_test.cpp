@@ -1,9 +1,10 @@
 // convert_test.cpp: `attiscope convert` as a person meets it: bad input exits 2 with a message
 // that names the line and column and prints no rotation; help texts exit 0; good input exits
-// 0 with the JSON of design.md.
+// 0 with the JSON of design.md; no pose at all says where one goes.
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <filesystem>
 #include <nlohmann/json.hpp>
 #include <regex>
 #include <sstream>
@@ -69,6 +70,21 @@ TEST(ConvertCliTest, BadUsageExitsTwo) {
     EXPECT_TRUE(r.out.empty()) << r.out;
     EXPECT_FALSE(r.err.empty());
   }
+}
+
+TEST(ConvertCliTest, NoPoseSaysWhereOneGoes) {
+  // Nothing as TEXT and nothing (or only white space) on standard input: the message names
+  // both places instead of reporting that no numbers were found in an empty text.
+  for (const std::string& input : {std::string(), std::string(" \n\t\n")}) {
+    for (const std::vector<std::string>& args :
+         std::vector<std::vector<std::string>>{{"convert"}, {"convert", "-"}, {"render", "--out", "x.png"}}) {
+      const CliRun r = run_cli(args, input);
+      EXPECT_EQ(r.code, kExitBadInput) << args[0];
+      EXPECT_TRUE(r.out.empty()) << r.out;
+      EXPECT_NE(r.err.find("no pose given: pass it as TEXT"), std::string::npos) << r.err;
+    }
+  }
+  EXPECT_FALSE(std::filesystem::exists("x.png"));
 }
 
 TEST(ConvertCliTest, HelpExitsZero) {
